@@ -1,0 +1,55 @@
+import { sveltekit } from '@sveltejs/kit/vite';
+import tailwindcss from '@tailwindcss/vite';
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  plugins: [tailwindcss(), sveltekit()],
+  server: { host: '127.0.0.1', port: 5173, strictPort: false },
+  test: {
+    expect: { requireAssertions: true },
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: 'unit',
+          environment: 'node',
+          include: ['tests/unit/**/*.test.ts']
+        }
+      },
+      {
+        extends: true,
+        test: {
+          name: 'component',
+          environment: 'jsdom',
+          include: ['tests/component/**/*.test.ts']
+        },
+        resolve: process.env.VITEST ? { conditions: ['browser'] } : undefined
+      },
+      {
+        extends: true,
+        test: {
+          name: 'integration',
+          environment: 'node',
+          include: ['tests/integration/**/*.test.ts'],
+          // One real MariaDB and Redis shared by every file: run files one after another.
+          fileParallelism: false,
+          testTimeout: 60_000,
+          hookTimeout: 120_000,
+          globalSetup: ['tests/integration/global-setup.ts']
+        }
+      },
+      {
+        extends: true,
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['tests/e2e/**/*.test.ts'],
+          fileParallelism: false,
+          testTimeout: 120_000,
+          hookTimeout: 180_000,
+          globalSetup: ['tests/e2e/global-setup.ts']
+        }
+      }
+    ]
+  }
+});
