@@ -1,0 +1,5 @@
+/**
+ * Public surface of the physics core (DESIGN.md §3). Pure TypeScript, SI units, no I/O.
+ */
+export * from './constants';
+export * from './atmosphere';
