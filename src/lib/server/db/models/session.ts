@@ -1,0 +1,18 @@
+import { DataTypes, Model, type InferAttributes, type InferCreationAttributes } from 'sequelize';
+import { sequelize } from '../sequelize';
+
+/** A sign-in session (lucia's session id is the primary key). */
+export class Session extends Model<InferAttributes<Session>, InferCreationAttributes<Session>> {
+  declare id: string;
+  declare userId: string;
+  declare expiresAt: Date;
+}
+
+Session.init(
+  {
+    id: { type: DataTypes.STRING(64), primaryKey: true },
+    userId: { type: DataTypes.UUID, allowNull: false },
+    expiresAt: { type: DataTypes.DATE, allowNull: false }
+  },
+  { sequelize, tableName: 'sessions', modelName: 'Session', timestamps: false }
+);
