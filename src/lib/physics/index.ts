@@ -3,3 +3,6 @@
  */
 export * from './constants';
 export * from './atmosphere';
+export * from './reasons';
+export * from './orbits';
+export * from './rocket';
