@@ -9,12 +9,16 @@ import { sequelize } from './sequelize';
 import * as m0001 from './migrations/2026-12-01-0001-auth';
 import * as m0002 from './migrations/2026-12-01-0002-api-tokens';
 import * as m0003 from './migrations/2026-12-01-0003-mail-messages';
+import * as m0010 from './migrations/2026-12-01-0010-studies-sweeps';
+import * as m0011 from './migrations/2026-12-01-0011-sweep-cases';
 
 type Step = (p: { context: QueryInterface }) => Promise<void>;
 const MIGRATIONS: { name: string; up: Step; down: Step }[] = [
   { name: '2026-12-01-0001-auth', ...m0001 },
   { name: '2026-12-01-0002-api-tokens', ...m0002 },
-  { name: '2026-12-01-0003-mail-messages', ...m0003 }
+  { name: '2026-12-01-0003-mail-messages', ...m0003 },
+  { name: '2026-12-01-0010-studies-sweeps', ...m0010 },
+  { name: '2026-12-01-0011-sweep-cases', ...m0011 }
 ];
 
 export function migrator(log = false) {
