@@ -6,3 +6,6 @@ export * from './atmosphere';
 export * from './reasons';
 export * from './orbits';
 export * from './rocket';
+export * from './budget';
+export * from './feasibility';
+export * from './evaluate';
