@@ -5,6 +5,7 @@
  */
 import { hashPassword } from '../password';
 import { Membership, User, Workspace, type Role } from './models';
+import { seedCatalogue } from './seed-catalogue';
 
 export const DEMO_PASSWORD = 'loftwise-demo';
 
@@ -52,6 +53,8 @@ export async function seedDemo() {
   for (const u of DEMO_USERS) await grant(u.email, 'small-launcher', u.role);
   await grant('admin@tarnwick.example', 'heavy-concepts', 'admin');
   await grant('engineer@tarnwick.example', 'heavy-concepts', 'engineer');
+
+  await seedCatalogue(workspaces);
 
   return { users, workspaces };
 }

@@ -14,6 +14,8 @@ export { Membership, Session, User, Workspace };
 export { ROLES, roleAtLeast, type Role } from './membership';
 export { ApiToken } from './api-token';
 export { MailMessage } from './mail-message';
+export { Invite } from './invite';
+export { CatalogueEntry } from './catalogue-entry';
 export { Study } from './study';
 export { Sweep, SWEEP_STATUSES, type SweepStatus } from './sweep';
 export { ShareLink } from './share-link';
