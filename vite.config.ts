@@ -30,6 +30,7 @@ export default defineConfig({
         test: {
           name: 'integration',
           environment: 'node',
+          env: { LOFTWISE_ENV: 'test' },
           include: ['tests/integration/**/*.test.ts'],
           // One real MariaDB and Redis shared by every file: run files one after another.
           fileParallelism: false,
@@ -43,6 +44,7 @@ export default defineConfig({
         test: {
           name: 'e2e',
           environment: 'node',
+          env: { LOFTWISE_ENV: 'test', DB_NAME: 'loftwise_e2e', QUEUE_PREFIX: 'lw-e2e', SMTP_PORT: '2527' },
           include: ['tests/e2e/**/*.test.ts'],
           fileParallelism: false,
           testTimeout: 120_000,

@@ -2,6 +2,7 @@
  * Database command line: `tsx src/lib/server/db/cli.ts <command>` (or `npm run db -- <command>`).
  *   migrate        apply pending migrations
  *   rollback       undo the last migration
+ *   rollback-all   undo every migration
  *   reset          undo every migration, then apply them all (test databases)
  *   seed           insert the demo scenario (idempotent)
  *   status         list applied and pending migrations
@@ -24,6 +25,11 @@ async function main(cmd: string | undefined) {
       console.log(`db ${config.DB_NAME}: rolled back ${undone.map((x) => x.name).join(', ') || 'nothing'}`);
       break;
     }
+    case 'rollback-all': {
+      const undone = await m.down({ to: 0 });
+      console.log(`db ${config.DB_NAME}: rolled back ${undone.length} migration(s)`);
+      break;
+    }
     case 'reset': {
       if (config.LOFTWISE_ENV === 'production') throw new Error('reset refuses to run with LOFTWISE_ENV=production');
       await m.down({ to: 0 });
@@ -43,7 +49,7 @@ async function main(cmd: string | undefined) {
       break;
     }
     default:
-      console.error('usage: cli.ts migrate|rollback|reset|seed|status');
+      console.error('usage: cli.ts migrate|rollback|rollback-all|reset|seed|status');
       process.exitCode = 2;
   }
 }

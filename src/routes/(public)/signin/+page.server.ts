@@ -24,7 +24,8 @@ export const actions: Actions = {
     const parsed = SignIn.safeParse(form);
     const email = typeof form.email === 'string' ? form.email : '';
     if (!parsed.success) {
-      const errors = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message]));
+      const errors: Record<string, string> = {};
+      for (const i of parsed.error.issues) errors[String(i.path[0])] ??= i.message; // first problem per field
       return fail(400, { email, errors });
     }
     const user = await checkCredentials(parsed.data.email, parsed.data.password);
