@@ -209,6 +209,7 @@ export function createBudgetCaseResult(): BudgetCaseResult {
 
 // Module scratch (single-threaded JS: safe to share between calls).
 const C = new Float64Array(MAX_STAGES);
+const LNN = new Float64Array(MAX_STAGES);
 const ORBIT: InsertionResult = {
   insertionSpeed: 0,
   insertionAltitude: 0,
@@ -227,9 +228,20 @@ const ORBIT_IN = {
   insertionAltitude: NaN
 };
 let orbitAssist = 0;
+const GEOMETRY = { ...ORBIT_IN };
 
 // Parameters of the vehicle-mode required delta-v, set once per case (avoids a closure).
 const REQ = { t0: 0, dryTotal: 0, corrMask: 0, ga: 0, gb: 0, d0: 0, d1: 0, userG: 0, userD: 0, fixed: 0, rf: 0, rv: 0 };
+
+/** d required/dx = (1 + rf)·(b/ψ − d1·ψ)/(M + x) for the correlated terms (chain rule, dψ/dx = −ψ/(M + x)). */
+function requiredSlope(x: number): number {
+  const m = REQ.dryTotal + x;
+  const psi = REQ.t0 / (m * G0);
+  let s = 0;
+  if (REQ.corrMask & 1 && REQ.ga + REQ.gb / psi > 0) s += REQ.gb / psi;
+  if (REQ.corrMask & 2 && REQ.d0 + REQ.d1 * psi > 0) s -= REQ.d1 * psi;
+  return ((1 + REQ.rf) * s) / m;
+}
 
 /** Required delta-v for payload x: ψ = T0/((M + x)·G0) feeds the loss correlation. */
 function required(x: number): number {
@@ -260,15 +272,13 @@ function orbitTerms(input: BudgetCaseInput): void {
     return;
   }
   ORBIT_IN.targetPerigeeAltitude = NaN; // invalidate while computing (an exception leaves it invalid)
-  const geometry = {
-    targetPerigeeAltitude: input.targetPerigeeAltitude,
-    targetApogeeAltitude: ha,
-    targetInclination: input.targetInclination,
-    latitude: input.latitude,
-    strategy: input.strategy,
-    insertionAltitude: hi
-  };
-  insertionToTargetInto(geometry, ORBIT);
+  GEOMETRY.targetPerigeeAltitude = input.targetPerigeeAltitude;
+  GEOMETRY.targetApogeeAltitude = ha;
+  GEOMETRY.targetInclination = input.targetInclination;
+  GEOMETRY.latitude = input.latitude;
+  GEOMETRY.strategy = input.strategy;
+  GEOMETRY.insertionAltitude = hi;
+  insertionToTargetInto(GEOMETRY, ORBIT);
   // Earth-rotation assist ω·R·cos φ·sin β along the azimuth flown.
   orbitAssist = EARTH.rotationRate * EARTH.radius * Math.cos(input.latitude * DEG) * Math.sin(ORBIT.azimuth * DEG);
   ORBIT_IN.targetApogeeAltitude = ha;
@@ -279,8 +289,8 @@ function orbitTerms(input: BudgetCaseInput): void {
   ORBIT_IN.targetPerigeeAltitude = input.targetPerigeeAltitude;
 }
 
-function clearStages(out: BudgetCaseResult): void {
-  for (let i = 0; i < MAX_STAGES; i++) {
+function clearStages(out: BudgetCaseResult, count: number): void {
+  for (let i = 0; i < count; i++) {
     out.massRatio[i] = 0;
     out.stageDeltaV[i] = 0;
     out.propellantMass[i] = 0;
@@ -351,7 +361,8 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
   // Orbital part of the budget (independent of the vehicle).
   const orbital = ORBIT.insertionSpeed - orbitAssist + ORBIT.transferDeltaV + ORBIT.planeChangeDeltaV;
 
-  clearStages(out);
+  // Zero the per-stage fields this case uses and any left over from a larger previous case.
+  clearStages(out, out.stageCount > k ? out.stageCount : k);
   out.stageCount = k;
   let fail = 0;
   let warn = 0;
@@ -389,7 +400,7 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
       fail |= REASON_BIT.STRUCTURAL_COEFFICIENT_INVALID;
       payload = 0;
     } else {
-      const pi = optimalStagingKernel(k, C, input.structuralCoefficient, total > 0 ? total : 0, out.massRatio);
+      const pi = optimalStagingKernel(k, C, input.structuralCoefficient, total > 0 ? total : 0, out.massRatio, LNN);
       if (pi <= 0) {
         fail |= REASON_BIT.DELTA_V_UNREACHABLE;
         out.payloadFraction = 0;
@@ -408,8 +419,8 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
           out.ignitionMass[i] = m0;
           out.propellantMass[i] = (1 - e) * s;
           out.structuralMass[i] = e * s;
-          // Rocket equation per stage.
-          out.stageDeltaV[i] = C[i] * Math.log(n);
+          // Rocket equation per stage, c_i·ln n_i (ln n_i from the staging kernel).
+          out.stageDeltaV[i] = C[i] * LNN[i];
           const thrust = input.thrustToWeight[i] * m0 * G0;
           out.thrust[i] = thrust;
           // Burn-out acceleration T/(m0/n) = ψ·n·G0.
@@ -454,8 +465,7 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
       fail |= REASON_BIT.DELTA_V_UNREACHABLE;
       payload = 0;
     } else {
-      // Bracketed Newton on g(x) = Δv_vehicle(x) − required(x), derivative by a relative
-      // forward difference for the correlation part (exact for fixed losses).
+      // Bracketed Newton on g(x) = Δv_vehicle(x) − required(x), analytic derivative.
       let lo = 0;
       let hi = Infinity;
       for (let it = 0; it < 100 && f !== 0; it++) {
@@ -465,10 +475,7 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
           m0 += input.propellantMass[i] + input.dryMass[i];
           df += C[i] * (1 / m0 - 1 / (m0 - input.propellantMass[i]));
         }
-        if (!fixedLoss) {
-          const dx = 1e-6 * (dryTotal + x);
-          df -= (required(x + dx) - required(x)) / dx;
-        }
+        if (!fixedLoss) df -= requiredSlope(x);
         let next = x - f / df;
         if (!(next > lo && next < hi)) next = hi === Infinity ? 2 * x + 0.01 * dryTotal : 0.5 * (lo + hi);
         x = next;
@@ -596,6 +603,30 @@ const ARRAY_KEYS = [
 
 /** Replace non-finite numbers by 0; true when all were finite already. */
 function allFinite(out: BudgetCaseResult): boolean {
+  // Fast path: x − x is 0 for finite x and NaN for NaN/±Infinity, so one sum tells.
+  let z =
+    out.insertionSpeed - out.insertionSpeed + (out.gravityLoss - out.gravityLoss) + (out.dragLoss - out.dragLoss) +
+    (out.steeringLoss - out.steeringLoss) + (out.rotationAssist - out.rotationAssist) +
+    (out.transferDeltaV - out.transferDeltaV) + (out.planeChangeDeltaV - out.planeChangeDeltaV) +
+    (out.reserve - out.reserve) + (out.totalDeltaV - out.totalDeltaV) + (out.azimuth - out.azimuth) +
+    (out.launchInclination - out.launchInclination) + (out.planeChangeAngle - out.planeChangeAngle) +
+    (out.payloadMass - out.payloadMass) + (out.grossMass - out.grossMass) +
+    (out.payloadFraction - out.payloadFraction) + (out.liftoffThrustToWeight - out.liftoffThrustToWeight) +
+    (out.maxAxialAcceleration - out.maxAxialAcceleration) + (out.maxDynamicPressure - out.maxDynamicPressure);
+  const k = out.stageCount;
+  for (let i = 0; i < k; i++) {
+    z +=
+      out.massRatio[i] - out.massRatio[i] + (out.stageDeltaV[i] - out.stageDeltaV[i]) +
+      (out.propellantMass[i] - out.propellantMass[i]) + (out.structuralMass[i] - out.structuralMass[i]) +
+      (out.ignitionMass[i] - out.ignitionMass[i]) + (out.thrust[i] - out.thrust[i]) +
+      (out.thrustToWeight[i] - out.thrustToWeight[i]) + (out.structuralCoefficient[i] - out.structuralCoefficient[i]);
+  }
+  if (z === 0) return true;
+  return repairNonFinite(out);
+}
+
+/** Slow path of {@link allFinite}: zero every non-finite field. */
+function repairNonFinite(out: BudgetCaseResult): boolean {
   let ok = true;
   for (let j = 0; j < SCALAR_KEYS.length; j++) {
     const key = SCALAR_KEYS[j];

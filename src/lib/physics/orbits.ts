@@ -366,9 +366,10 @@ export function insertionToTargetInto(input: InsertionInput, out: InsertionResul
     const vaTransfer = Math.sqrt(mu * (2 / rat - 2 / (ri + rat)));
     // Apogee burn, coplanar part and combined with the plane change (law of cosines).
     const coplanar = Math.abs(vaTarget - vaTransfer);
-    const d2 = vaTransfer * vaTransfer + vaTarget * vaTarget - 2 * vaTransfer * vaTarget * cosDi;
-    const combined = Math.sqrt(d2 > 0 ? d2 : 0);
-    plane = combined - coplanar;
+    if (dInc > 0) {
+      const d2 = vaTransfer * vaTransfer + vaTarget * vaTarget - 2 * vaTransfer * vaTarget * cosDi;
+      plane = Math.sqrt(d2 > 0 ? d2 : 0) - coplanar;
+    }
     if (input.strategy === 'parkingOrbit') {
       // Circular parking orbit speed, then the Hohmann-type first burn.
       insertionSpeed = Math.sqrt(mu / ri);

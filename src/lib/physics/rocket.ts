@@ -176,6 +176,8 @@ function validateStages(stages: readonly StagingStage[]): void {
  * @param eps structural coefficients, bottom first.
  * @param deltaV required delta-v [m/s].
  * @param massRatios receives n_i (length ≥ count).
+ * @param logMassRatios optional, receives ln n_i (so callers get stage delta-v c_i·ln n_i
+ *   without another logarithm).
  * @returns the payload fraction π, or −1 when Δv ≥ Σ c_i·ln(1/ε_i) (unreachable; massRatios
  *   then holds 1/ε_i, the zero-payload limit).
  * @see Curtis, Orbital Mechanics for Engineering Students, §11.6 (optimal staging, Lagrange
@@ -189,17 +191,18 @@ export function optimalStagingKernel(
   c: ArrayLike<number>,
   eps: ArrayLike<number>,
   deltaV: number,
-  massRatios: { [i: number]: number; length: number }
+  massRatios: { [i: number]: number; length: number },
+  logMassRatios?: { [i: number]: number; length: number }
 ): number {
-  let maxDv = 0;
-  for (let i = 0; i < count; i++) maxDv -= c[i] * Math.log(eps[i]);
-  if (!(deltaV < maxDv * (1 - 1e-12))) {
-    for (let i = 0; i < count; i++) massRatios[i] = 1 / eps[i];
-    return -1;
-  }
+  const ln = logMassRatios ?? LN_SCRATCH;
   if (deltaV <= 0) {
-    for (let i = 0; i < count; i++) massRatios[i] = 1;
-    return 1;
+    let room = 0;
+    for (let i = 0; i < count; i++) {
+      massRatios[i] = 1;
+      ln[i] = 0;
+      room -= c[i] * Math.log(eps[i]);
+    }
+    return room > 0 ? 1 : -1;
   }
   // Bit mask of stages still free in the optimisation (others are fixed at n = 1).
   let active = (1 << count) - 1;
@@ -208,6 +211,7 @@ export function optimalStagingKernel(
     let cSum = 0;
     let epsSum = 0;
     let nActive = 0;
+    // f(0) = Σ c_i·ln(1/ε_i) − Δv: the zero-payload limit of the active stages minus Δv.
     let fAtZero = -deltaV;
     for (let i = 0; i < count; i++) {
       if (!(active & (1 << i))) continue;
@@ -217,9 +221,12 @@ export function optimalStagingKernel(
       nActive++;
       fAtZero -= c[i] * Math.log(eps[i]);
     }
-    if (fAtZero <= 0) {
-      // The remaining stages cannot supply the delta-v alone (only after dropping stages).
-      for (let i = 0; i < count; i++) massRatios[i] = 1 / eps[i];
+    if (!(fAtZero > 1e-12 * deltaV)) {
+      // Unreachable (pass 0), or reachable only with the stages already dropped.
+      for (let i = 0; i < count; i++) {
+        massRatios[i] = 1 / eps[i];
+        ln[i] = -Math.log(eps[i]);
+      }
       return -1;
     }
     // Bracket [lo, hi] on x = 1/η with f(lo) > 0 > f(hi).
@@ -230,6 +237,9 @@ export function optimalStagingKernel(
     const epsBar = epsSum / nActive;
     let x = cBar * (1 - epsBar * Math.exp(deltaV / (nActive * cBar)));
     if (!(x > lo && x < hi)) x = 0.5 * (lo + hi);
+    // |f| below which one last Newton step is taken without re-evaluating f: the step's own
+    // error is of order (f''/2f')·(f/f')², below 1e-12 m/s here.
+    const fTol = 1e-3;
     for (let it = 0; it < 200; it++) {
       let f = -deltaV;
       let df = 0;
@@ -238,14 +248,23 @@ export function optimalStagingKernel(
         const ci = c[i];
         const d = ci - x;
         // Constraint Σ c_i ln n_i − Δv and its derivative −Σ c_i/(c_i − x).
-        f += ci * Math.log(d / (ci * eps[i]));
+        const l = Math.log(d / (ci * eps[i]));
+        ln[i] = l;
+        f += ci * l;
         df -= ci / d;
+      }
+      const step = f / df;
+      if (Math.abs(f) < fTol) {
+        // Final Newton step; log mass ratios follow to first order (ln n_i − step/(c_i − x)).
+        for (let i = 0; i < count; i++) if (active & (1 << i)) ln[i] += step / (c[i] - x);
+        x -= step;
+        break;
       }
       if (f > 0) lo = x;
       else hi = x;
-      if (Math.abs(f) < 1e-9 * deltaV + 1e-12 || hi - lo < 1e-15 * cMin) break;
+      if (hi - lo < 1e-15 * cMin) break;
       // Newton step, replaced by bisection when it leaves the bracket.
-      let next = x - f / df;
+      let next = x - step;
       if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
       x = next;
     }
@@ -253,6 +272,7 @@ export function optimalStagingKernel(
     for (let i = 0; i < count; i++) {
       if (!(active & (1 << i))) {
         massRatios[i] = 1;
+        ln[i] = 0;
         continue;
       }
       // Optimal stage mass ratio from the Lagrange condition.
@@ -262,7 +282,12 @@ export function optimalStagingKernel(
     }
     if (!dropped) break;
     active &= ~dropped;
-    for (let i = 0; i < count; i++) if (dropped & (1 << i)) massRatios[i] = 1;
+    for (let i = 0; i < count; i++) {
+      if (dropped & (1 << i)) {
+        massRatios[i] = 1;
+        ln[i] = 0;
+      }
+    }
   }
   let pi = 1;
   for (let i = 0; i < count; i++) {
@@ -272,6 +297,8 @@ export function optimalStagingKernel(
   }
   return pi > 0 ? pi : 0;
 }
+
+const LN_SCRATCH = new Float64Array(MAX_STAGES);
 
 function stagingFromRatios(
   stages: readonly StagingStage[],
