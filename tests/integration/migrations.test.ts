@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import mariadb from 'mariadb';
 import { dbCli } from '../helpers/processes';
+import { config } from '../../src/lib/server/config';
 
 /** Migrations run against their own scratch database, so other suites' data is untouched. */
 const ENV = { LOFTWISE_ENV: 'test', DB_NAME: 'loftwise_scratch' };
@@ -13,7 +14,7 @@ describe('migrations on the real MariaDB', () => {
     );
 
   beforeAll(async () => {
-    conn = await mariadb.createConnection({ host: '127.0.0.1', port: 3307, user: 'loftwise', password: 'loftwise_pw' });
+    conn = await mariadb.createConnection({ host: config.DB_HOST, port: config.DB_PORT, user: config.DB_USER, password: config.DB_PASS });
   });
   afterAll(async () => {
     await conn?.end();
