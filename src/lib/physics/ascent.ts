@@ -517,7 +517,7 @@ class FlightEngine {
       const finite = Number.isFinite(y[0]) && Number.isFinite(y[1]) && Number.isFinite(y[2]);
       if (!finite || y[2] < 0 || (this.mode !== MODE_VERTICAL && !(y[0] > STALL_SPEED))) {
         this.fellBack = true;
-        if (finite && y[2] < 0 && yPrev[2] > 0) {
+        if (finite && y[2] < 0 && yPrev[2] >= 0) {
           // Fall-back point: linear interpolation of the state to h = 0 inside the last step.
           const f = yPrev[2] / (yPrev[2] - y[2]);
           for (let i = 0; i < NY; i++) y[i] = yPrev[i] + f * (y[i] - yPrev[i]);
@@ -1282,6 +1282,9 @@ export function ascentPayload(
   }
   if (last.fellBack) {
     return fail('fell-back', 'the flight falls back to the ground for the controls tried', sims, iters, kickOf(x), x[1]);
+  }
+  if (!converged(F) && x[2] === 0 && F[2] < 0) {
+    return fail('target-unreachable', `with no payload the best burnout speed found is ${(Vt + F[2] * SCALE_V).toFixed(0)} m/s, below the target ${Vt.toFixed(0)} m/s (miss ${(F[0] * SCALE_H).toFixed(0)} m, ${F[1].toFixed(3)}°)`, sims, iters, kickOf(x), x[1]);
   }
   if (!converged(F)) {
     return fail('targeting-failed', `the shooting method did not converge in ${sims} flights (miss: ${(F[0] * SCALE_H).toFixed(0)} m, ${F[1].toFixed(3)}°, ${(F[2] * SCALE_V).toFixed(1)} m/s)`, sims, iters, kickOf(x), x[1]);

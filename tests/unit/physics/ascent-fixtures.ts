@@ -25,13 +25,17 @@ export function notionalGravityTurn(): GravityTurnInput {
   };
 }
 
-/** The notional vehicle for ascent mode (10 s vertical rise, steering from the second stage). */
-export function notionalVehicle(liftOffThrustScale = 1, verticalRiseTime: number | undefined = 10): AscentVehicle {
+/**
+ * The notional vehicle for ascent mode (10 s vertical rise, or 'default': until ≈ 50 m/s with a
+ * 15 t payload assumed), steering from the second stage.
+ */
+export function notionalVehicle(liftOffThrustScale = 1, verticalRiseTime: number | 'default' = 10): AscentVehicle {
   return {
     stages: notionalStages(liftOffThrustScale),
     referenceArea: 10,
     dragCoefficient: DEFAULT_DRAG_COEFFICIENT,
-    verticalRiseTime
+    verticalRiseTime: verticalRiseTime === 'default' ? undefined : verticalRiseTime,
+    nominalPayloadMass: 15e3
   };
 }
 
