@@ -63,13 +63,17 @@ export interface LossCorrelation {
  * ψ = 1.3, h = 200 km — gravity 1.65 km/s, drag 0.15 km/s, steering 0.15 km/s — so that a due-east
  * launch from 28.5° (rotation assist ≈ 409 m/s) lands inside the 9.3–10 km/s band as well.
  * Sensitivities (judgement, to be replaced by the refit): half the gravity loss scales as 1/ψ
- * (the lift-off stage's near-vertical climb: b/1.3 = 825 m/s), +0.5 m/s of gravity loss per km of
- * burn-out altitude (c = 5e-4), drag loss proportional to ψ (faster through the dense air),
+ * (the lift-off stage's near-vertical climb: b/1.3 = 825 m/s); +1.1 m/s per km of burn-out
+ * altitude (c = 1.1e-3), chosen so that a direct ascent to a higher circular orbit costs about
+ * what ascending to 200 km and then a Hohmann transfer would (energy consistency: between 200
+ * and 600 km the circular speed falls 226 m/s while the Hohmann transfer costs ≈ 220 m/s, so
+ * the budget must rise ≈ (226 + 220)/400 m/s per km; a smaller c would make higher orbits look
+ * cheaper than lower ones); drag loss proportional to ψ (faster through the dense air),
  * max-Q rising linearly from ≈ 25 kPa at ψ = 1.2 to ≈ 40 kPa at ψ = 1.6 (common practice band for
  * max-Q, from memory).
  */
 export const DEFAULT_LOSS_CORRELATION: LossCorrelation = Object.freeze({
-  gravity: Object.freeze({ a: 725, b: 1072.5, c: 5e-4 }),
+  gravity: Object.freeze({ a: 605, b: 1072.5, c: 1.1e-3 }),
   drag: Object.freeze({ d0: 0, d1: 150 / 1.3 }),
   steering: Object.freeze({ s: 150 }),
   maxQ: Object.freeze({ q0: -20000, q1: 37500 }),
