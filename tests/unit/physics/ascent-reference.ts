@@ -8,19 +8,23 @@
  * The state is scaled (km, km/s, t, rad) so that one absolute `tol` means the same thing for
  * every component: tol = 1e-9 is a micrometre, a micrometre per second, a milligram.
  */
-import { solveODE as solveODEUntyped } from 'mathjs';
+import * as mathjs from 'mathjs';
 import { atmosphere } from '../../../src/lib/physics/atmosphere';
 import { EARTH, G0 } from '../../../src/lib/physics/constants';
 import type { AscentStage } from '../../../src/lib/physics/ascent';
 
 // solveODE is missing from mathjs's type declarations (STACK.md pitfall 8).
 type Rhs = (t: number, y: number[]) => number[];
-const solveODE = solveODEUntyped as unknown as (
-  f: Rhs,
-  tspan: [number, number],
-  y0: number[],
-  options: { tol: number; method?: string; maxIter?: number; maxStep?: number; firstStep?: number }
-) => { t: number[]; y: number[][] };
+const solveODE = (
+  mathjs as unknown as {
+    solveODE: (
+      f: Rhs,
+      tspan: [number, number],
+      y0: number[],
+      options: { tol: number; method?: string; maxIter?: number; maxStep?: number; firstStep?: number }
+    ) => { t: number[]; y: number[][] };
+  }
+).solveODE;
 
 export interface ReferenceInput {
   stages: ReadonlyArray<AscentStage>;
