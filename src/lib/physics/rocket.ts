@@ -167,9 +167,11 @@ function validateStages(stages: readonly StagingStage[]): void {
  * `massRatios`. No validation (inputs assumed finite, c > 0, 0 < ε < 1, deltaV ≥ 0).
  *
  * Method: with x = 1/η the optimality condition gives n_i = (c_i − x)/(c_i·ε_i); x solves
- * f(x) = Σ c_i·ln n_i(x) − Δv = 0 on [0, min c_i), where f is decreasing and concave, so a
- * Newton iteration safeguarded by bisection on the bracket converges from any start.
- * A stage whose optimal n would fall below 1 is left empty (n = 1) and the rest re-solved.
+ * F(x) = Σ c_i·max(0, ln n_i(x)) − Δv = 0 on [0, max c_i(1 − ε_i)); F is continuous and
+ * decreasing, so a Newton iteration safeguarded by bisection on the bracket converges from any
+ * start. The max(0, ·) is the bound n_i ≥ 1: in u_i = ln n_i the problem is separable and
+ * concave, so its KKT point leaves a stage empty (n = 1) exactly when the unconstrained
+ * Lagrange condition would give it n < 1 ("water-filling").
  *
  * @param count number of stages (1..MAX_STAGES).
  * @param c effective exhaust speeds Isp·G0 [m/s], bottom first.
@@ -195,103 +197,85 @@ export function optimalStagingKernel(
   logMassRatios?: { [i: number]: number; length: number }
 ): number {
   const ln = logMassRatios ?? LN_SCRATCH;
+  // Zero-payload limit Σ c_i·ln(1/ε_i).
+  let maxDv = 0;
+  let cSum = 0;
+  let epsSum = 0;
+  let xMax = 0;
+  for (let i = 0; i < count; i++) {
+    maxDv -= c[i] * Math.log(eps[i]);
+    cSum += c[i];
+    epsSum += eps[i];
+    // Stage i is used (n_i > 1) only while x < c_i·(1 − ε_i).
+    const edge = c[i] * (1 - eps[i]);
+    if (edge > xMax) xMax = edge;
+  }
+  if (!(deltaV < maxDv * (1 - 1e-12))) {
+    for (let i = 0; i < count; i++) {
+      massRatios[i] = 1 / eps[i];
+      ln[i] = Math.log(1 / eps[i]);
+    }
+    return -1;
+  }
   if (deltaV <= 0) {
-    let room = 0;
     for (let i = 0; i < count; i++) {
       massRatios[i] = 1;
       ln[i] = 0;
-      room -= c[i] * Math.log(eps[i]);
     }
-    return room > 0 ? 1 : -1;
+    return 1;
   }
-  // Bit mask of stages still free in the optimisation (others are fixed at n = 1).
-  let active = (1 << count) - 1;
-  for (let pass = 0; pass < count; pass++) {
-    let cMin = Infinity;
-    let cSum = 0;
-    let epsSum = 0;
-    let nActive = 0;
-    // f(0) = Σ c_i·ln(1/ε_i) − Δv: the zero-payload limit of the active stages minus Δv.
-    let fAtZero = -deltaV;
+  // Bracket [lo, hi] on x = 1/η with F(lo) > 0 > F(hi), F(x) = Σ c_i·max(0, ln n_i(x)) − Δv.
+  let lo = 0;
+  let hi = xMax;
+  // Start from the identical-stage optimum with mean c and ε (equal mass ratios).
+  const cBar = cSum / count;
+  const epsBar = epsSum / count;
+  let x = cBar * (1 - epsBar * Math.exp(deltaV / (count * cBar)));
+  if (!(x > lo && x < hi)) x = 0.5 * (lo + hi);
+  // |F| below which one last Newton step is taken without re-evaluating F: the step's own
+  // error is of order (F''/2F')·(F/F')², far below 1e-9 m/s here.
+  const fTol = 1e-3;
+  for (let it = 0; it < 200; it++) {
+    let f = -deltaV;
+    let df = 0;
     for (let i = 0; i < count; i++) {
-      if (!(active & (1 << i))) continue;
-      if (c[i] < cMin) cMin = c[i];
-      cSum += c[i];
-      epsSum += eps[i];
-      nActive++;
-      fAtZero -= c[i] * Math.log(eps[i]);
-    }
-    if (!(fAtZero > 1e-12 * deltaV)) {
-      // Unreachable (pass 0), or reachable only with the stages already dropped.
-      for (let i = 0; i < count; i++) {
-        massRatios[i] = 1 / eps[i];
-        ln[i] = -Math.log(eps[i]);
-      }
-      return -1;
-    }
-    // Bracket [lo, hi] on x = 1/η with f(lo) > 0 > f(hi).
-    let lo = 0;
-    let hi = cMin;
-    // Start from the identical-stage optimum with mean c and ε (equal mass ratios).
-    const cBar = cSum / nActive;
-    const epsBar = epsSum / nActive;
-    let x = cBar * (1 - epsBar * Math.exp(deltaV / (nActive * cBar)));
-    if (!(x > lo && x < hi)) x = 0.5 * (lo + hi);
-    // |f| below which one last Newton step is taken without re-evaluating f: the step's own
-    // error is of order (f''/2f')·(f/f')², below 1e-12 m/s here.
-    const fTol = 1e-3;
-    for (let it = 0; it < 200; it++) {
-      let f = -deltaV;
-      let df = 0;
-      for (let i = 0; i < count; i++) {
-        if (!(active & (1 << i))) continue;
-        const ci = c[i];
-        const d = ci - x;
-        // Constraint Σ c_i ln n_i − Δv and its derivative −Σ c_i/(c_i − x).
-        const l = Math.log(d / (ci * eps[i]));
-        ln[i] = l;
-        f += ci * l;
-        df -= ci / d;
-      }
-      const step = f / df;
-      if (Math.abs(f) < fTol) {
-        // Final Newton step; log mass ratios follow to first order (ln n_i − step/(c_i − x)).
-        for (let i = 0; i < count; i++) if (active & (1 << i)) ln[i] += step / (c[i] - x);
-        x -= step;
-        break;
-      }
-      if (f > 0) lo = x;
-      else hi = x;
-      if (hi - lo < 1e-15 * cMin) break;
-      // Newton step, replaced by bisection when it leaves the bracket.
-      let next = x - step;
-      if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
-      x = next;
-    }
-    let dropped = 0;
-    for (let i = 0; i < count; i++) {
-      if (!(active & (1 << i))) {
-        massRatios[i] = 1;
-        ln[i] = 0;
+      const ci = c[i];
+      const d = ci - x;
+      if (!(d > ci * eps[i])) {
+        ln[i] = 0; // stage left empty at this x (n_i would be ≤ 1)
         continue;
       }
-      // Optimal stage mass ratio from the Lagrange condition.
-      const n = (c[i] - x) / (c[i] * eps[i]);
-      massRatios[i] = n;
-      if (n < 1) dropped |= 1 << i;
+      // Constraint Σ c_i ln n_i − Δv over the used stages and its derivative −Σ c_i/(c_i − x).
+      const l = Math.log(d / (ci * eps[i]));
+      ln[i] = l;
+      f += ci * l;
+      df -= ci / d;
     }
-    if (!dropped) break;
-    active &= ~dropped;
-    for (let i = 0; i < count; i++) {
-      if (dropped & (1 << i)) {
-        massRatios[i] = 1;
-        ln[i] = 0;
-      }
+    const step = f / df;
+    if (Math.abs(f) < fTol) {
+      // Final Newton step; log mass ratios follow to first order (ln n_i − step/(c_i − x)).
+      const xNew = x - step;
+      for (let i = 0; i < count; i++) if (ln[i] > 0) ln[i] += step / (c[i] - x);
+      x = xNew;
+      break;
     }
+    if (f > 0) lo = x;
+    else hi = x;
+    if (hi - lo < 1e-15 * xMax) break;
+    // Newton step, replaced by bisection when it leaves the bracket.
+    let next = x - step;
+    if (!(next > lo && next < hi)) next = 0.5 * (lo + hi);
+    x = next;
   }
   let pi = 1;
   for (let i = 0; i < count; i++) {
-    const n = massRatios[i];
+    // Optimal stage mass ratio from the Lagrange condition, or 1 for an empty stage.
+    let n = (c[i] - x) / (c[i] * eps[i]);
+    if (!(n > 1) || !(ln[i] > 0)) {
+      n = 1;
+      ln[i] = 0;
+    }
+    massRatios[i] = n;
     // Step payload ratio m0_{i+1}/m0_i = (1 − ε n)/((1 − ε) n).
     pi *= (1 - eps[i] * n) / ((1 - eps[i]) * n);
   }

@@ -123,7 +123,8 @@ describe('optimalStaging', () => {
     { name: '2 stages, dense lower / high-energy upper', stages: [{ isp: 290, structuralCoefficient: 0.06 }, { isp: 440, structuralCoefficient: 0.12 }], dv: 9300 },
     { name: '2 stages, same propellant, lighter upper', stages: [{ isp: 300, structuralCoefficient: 0.08 }, { isp: 340, structuralCoefficient: 0.05 }], dv: 9600 },
     { name: '3 stages, mixed', stages: [{ isp: 270, structuralCoefficient: 0.07 }, { isp: 320, structuralCoefficient: 0.1 }, { isp: 450, structuralCoefficient: 0.15 }], dv: 11000 },
-    { name: '3 stages, solid-like upper', stages: [{ isp: 310, structuralCoefficient: 0.05 }, { isp: 350, structuralCoefficient: 0.09 }, { isp: 290, structuralCoefficient: 0.12 }], dv: 9500 }
+    { name: '3 stages, solid-like upper', stages: [{ isp: 310, structuralCoefficient: 0.05 }, { isp: 350, structuralCoefficient: 0.09 }, { isp: 290, structuralCoefficient: 0.12 }], dv: 9500 },
+    { name: '3 stages, one left empty by the optimum', stages: [{ isp: 300, structuralCoefficient: 0.08 }, { isp: 450, structuralCoefficient: 0.1 }, { isp: 250, structuralCoefficient: 0.25 }], dv: 7000 }
   ];
 
   it.each(cases)('$name: agrees with an independent brute-force search over the delta-v split', ({ stages, dv }) => {
@@ -134,6 +135,7 @@ describe('optimalStaging', () => {
     expect(b.pi).toBeLessThanOrEqual(r.payloadFraction * (1 + 1e-9));
     expect(Math.abs(b.pi / r.payloadFraction - 1)).toBeLessThan(1e-6);
     for (let i = 0; i < stages.length; i++) expect(Math.abs(b.split[i] - r.stageDeltaV[i])).toBeLessThan(2);
+    for (const n of r.massRatios) expect(n).toBeGreaterThanOrEqual(1);
     expect(Math.abs(r.stageDeltaV.reduce((a, c) => a + c, 0) - dv)).toBeLessThan(1e-6);
     // The payload fraction matches the rocket-equation product of its own split.
     expect(Math.abs(fractionOfSplit(stages, r.stageDeltaV) / r.payloadFraction - 1)).toBeLessThan(1e-9);
