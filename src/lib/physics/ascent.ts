@@ -30,11 +30,16 @@
  * because ṁ is constant per stage), so no event location is needed except the fall-back, which
  * is located by linear interpolation of the altitude inside the last step. The step is chosen
  * per phase: `atmosphere` (vertical rise, gravity turn, coasts before steering) and `vacuum`
- * (steered phase and the coasts after it). Defaults 1 s and 4 s, measured against a 0.02 s /
- * 0.05 s run of the same integrator and against mathjs solveODE (RK45, tol 1e-9) on a notional
- * two-stage vehicle: burnout speed within 0.05 m/s, altitude within 10 m, each loss within
- * 0.1 m/s, max-Q within 0.2 % (tests/unit/physics/ascent-integrator.test.ts states the bounds;
- * tests/bench/physics-ascent.bench.ts prints the measured values).
+ * (steered phase and the coasts after it), defaults 1 s and 8 s (≈ 210 steps for a two-stage
+ * flight; simulateGravityTurn defaults to 0.25 s everywhere). Stated error at the defaults,
+ * measured on the notional two-stage test vehicle against mathjs solveODE (RK45, tol 1e-9 on a
+ * km-scaled state) and against a 0.02 s / 0.05 s run of the same RK4: burnout speed ≤ 0.1 m/s,
+ * altitude ≤ 40 m, flight-path angle ≤ 0.001°, each loss ≤ 0.1 m/s, max-Q ≤ 0.2 % (max-Q sits
+ * on the tropopause kink of the atmosphere, which caps the order there); the targeted payload
+ * ≤ 0.02 % from a tight-tolerance reference over a 100-case sweep. RK4's h⁴ error made 2 s / 10 s
+ * steps just as good for the payload, but max-Q then errs by 0.4–0.6 %: hence 1 s in the
+ * atmosphere. tests/unit/physics/ascent-integrator.test.ts holds the bounds (≈ 3× measured);
+ * tests/bench/physics-ascent.bench.ts prints the measured values.
  * Atmosphere: U.S. Standard Atmosphere 1976 from `./atmosphere`, read through the 50 m table of
  * `./atmosphere-table` (linear interpolation, ≈ 1e-5 relative; no allocation, no exp per call).
  */
@@ -42,6 +47,7 @@ import { EARTH, G0, DEG } from './constants';
 import { createAtmosphereState } from './atmosphere';
 import { atmosphereTableInto } from './atmosphere-table';
 import { cdAt, compileDragTable, isDragTable, type DragTable } from './drag';
+import type { LossInput } from './budget';
 
 // ---------------------------------------------------------------------------------------------
 // Types
@@ -1326,4 +1332,35 @@ export function ascentPayload(
   };
   if (rec) result.trajectory = rec;
   return result;
+}
+
+/**
+ * The simulated losses of an ascent-mode result as delta-v budget inputs (`origin: 'simulated'`),
+ * for `buildDeltaVBudget({ losses })` of `./budget`.
+ *
+ * Mapping: gravity = ∫g·sin γ dt; steering = ∫(T/m)(1 − cos α) dt; drag = ∫D/m dt plus the
+ * thrust lost to ambient pressure (vacuum Δv − ∫T/m dt), both atmospheric losses, so that the
+ * budget's vacuum-Isp rocket equation closes: Σ losses = vacuum Δv − burnout speed. The note
+ * carries the split.
+ *
+ * Earth rotation: the ascent model's Earth does not rotate; pass `target.speed` = insertion speed
+ * − rotation assist to {@link ascentPayload} and let the budget subtract the same assist.
+ *
+ * @param r a feasible {@link AscentPayloadResult} (an infeasible one gives zeros).
+ * @returns `{ gravity, drag, steering }` as `{ value [m/s], origin: 'simulated', note }`.
+ * @see DESIGN.md §3 and issue 3 point 5 (term origins).
+ * @example
+ * buildDeltaVBudget({ ..., losses: ascentBudgetLosses(ascentPayload(vehicle, target)) });
+ */
+export function ascentBudgetLosses(r: AscentPayloadResult): { gravity: LossInput; drag: LossInput; steering: LossInput } {
+  const l = r.losses;
+  return {
+    gravity: { value: l.gravity, origin: 'simulated', note: 'ascent simulation: ∫g·sin γ dt' },
+    drag: {
+      value: l.drag + l.pressure,
+      origin: 'simulated',
+      note: `ascent simulation: aerodynamic drag ${l.drag.toFixed(1)} m/s + thrust lost to ambient pressure ${l.pressure.toFixed(1)} m/s`
+    },
+    steering: { value: l.steering, origin: 'simulated', note: 'ascent simulation: ∫(T/m)(1 − cos α) dt' }
+  };
 }

@@ -9,3 +9,7 @@ export * from './rocket';
 export * from './budget';
 export * from './feasibility';
 export * from './evaluate';
+export * from './drag';
+export * from './atmosphere-table';
+export * from './ascent';
+export * from './ascent-sizing';

@@ -10,6 +10,8 @@ import {
   simulateGravityTurn
 } from '../../../src/lib/physics/ascent';
 import { sizeAscentVehicle } from '../../../src/lib/physics/ascent-sizing';
+import { ascentBudgetLosses } from '../../../src/lib/physics/ascent';
+import { buildDeltaVBudget } from '../../../src/lib/physics/budget';
 import { DEFAULT_DRAG_COEFFICIENT } from '../../../src/lib/physics/drag';
 import { EARTH } from '../../../src/lib/physics/constants';
 import { allNumbers, notionalGravityTurn, notionalStages, notionalVehicle } from './ascent-fixtures';
@@ -72,6 +74,17 @@ describe('targeting by the shooting method', () => {
     }
     expect(t.altitude[n - 1]).toBeCloseTo(200e3, -2);
     expect(Math.max(...t.dynamicPressure)).toBeLessThanOrEqual(r.maxDynamicPressure * (1 + 1e-12));
+  });
+});
+
+describe('simulated losses feed the delta-v budget', () => {
+  it('terms carry origin "simulated" and the budget losses equal vacuum Δv − burnout speed', () => {
+    const r = ascentPayload(notionalVehicle(), TARGET);
+    const b = buildDeltaVBudget({ target: { perigeeAltitude: 200e3, inclination: 90 }, latitude: 0, losses: ascentBudgetLosses(r) });
+    expect(b.terms.gravityLoss.origin).toBe('simulated');
+    expect(b.terms.dragLoss.origin).toBe('simulated');
+    expect(b.terms.steeringLoss.origin).toBe('simulated');
+    expect(b.ascentLosses).toBeCloseTo(r.vacuumDeltaV - r.burnout.speed, 6);
   });
 });
 
