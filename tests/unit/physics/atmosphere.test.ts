@@ -64,6 +64,9 @@ describe('atmosphere() against the U.S. Standard Atmosphere 1976 table (tests/fi
     }
   });
 
+  // Up to 86 km every cell is an independent check of the closed-form model. Above 86 km only
+  // the temperature is (the standard's own eqs. 25–31 against its table); the pressure and
+  // density rows there are the fit's nodes, so they check that the fit passes through them.
   for (const row of rows) {
     it(`row ${row.line}: ${row.altitude} m`, () => {
       const got = atmosphere(row.altitude);
