@@ -8,10 +8,16 @@ import { sequelize } from '../src/lib/server/db/sequelize';
 import { JOB_QUEUE, QUEUES, type JobName, type QueueName } from '../src/lib/server/queue';
 import { workerConnection } from '../src/lib/server/redis';
 import * as system from './processors/system';
+import * as sweeps from './processors/sweeps';
+import { closeComputeThreads } from '../src/lib/server/sweeps/compute';
+import { closeRawPool } from '../src/lib/server/sweeps/pool';
+import { sweepWorkerOptions } from '../src/lib/server/sweeps/runner';
 
 /** Every job name has a handler: a missing one is a compile error. */
 const HANDLERS: Record<JobName, (job: Job) => Promise<unknown>> = {
-  ping: system.ping
+  ping: system.ping,
+  sweepChunk: (job) => sweeps.sweepChunk(job),
+  sweepFinalize: (job) => sweeps.sweepFinalize(job)
 };
 
 const CONCURRENCY: Record<QueueName, number> = { system: 4, sweeps: 1 };
@@ -30,7 +36,8 @@ export function startWorkers(queues: readonly QueueName[] = QUEUES) {
     const w = new Worker(name, processorFor(name), {
       connection,
       prefix: config.QUEUE_PREFIX,
-      concurrency: CONCURRENCY[name]
+      concurrency: CONCURRENCY[name],
+      ...(name === 'sweeps' ? sweepWorkerOptions() : {})
     });
     w.on('error', (e) => console.error(`[worker ${name}] ${e.message}`));
     w.on('failed', (job, e) => console.error(`[worker ${name}] job ${job?.id} (${job?.name}) failed: ${e.message}`));
@@ -56,6 +63,8 @@ async function main() {
     console.log(`worker ${process.pid}: ${signal}, finishing current jobs…`);
     try {
       await farm.close();
+      await closeComputeThreads();
+      await closeRawPool();
       await sequelize.close();
     } finally {
       process.exit(0);

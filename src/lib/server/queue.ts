@@ -15,11 +15,17 @@ export type QueueName = (typeof QUEUES)[number];
 export interface JobPayloads {
   /** Round trip through a worker, used by health checks and tests. */
   ping: { sentAt: number };
+  /** Evaluate and store one chunk of a sweep; `gen` is the sweep's run generation. */
+  sweepChunk: { sweepId: number; gen: number; chunk: number };
+  /** Rank, summarise and notify once every chunk of a sweep is stored. */
+  sweepFinalize: { sweepId: number };
 }
 export type JobName = keyof JobPayloads;
 
 export const JOB_QUEUE: Record<JobName, QueueName> = {
-  ping: 'system'
+  ping: 'system',
+  sweepChunk: 'sweeps',
+  sweepFinalize: 'sweeps'
 };
 
 export const DEFAULT_JOB_OPTIONS: JobsOptions = {

@@ -1,0 +1,12 @@
+import { json } from '@sveltejs/kit';
+import { requireUser } from '$lib/server/guard';
+import { api, sweepIdParam } from '$lib/server/sweeps/http';
+import { pauseSweep } from '$lib/server/sweeps/service';
+import type { RequestHandler } from './$types';
+
+/** Pause the sweep (engineer+); 409 when its state does not allow it. */
+export const POST: RequestHandler = ({ locals, params }) =>
+  api(async () => {
+    requireUser(locals);
+    return json(await pauseSweep(locals, sweepIdParam(params.id)));
+  });
