@@ -1,0 +1,93 @@
+import { error, fail, isHttpError, redirect } from '@sveltejs/kit';
+import { requireWorkspace } from '$lib/server/guard';
+import * as catalogue from '$lib/server/catalogue';
+import { ConflictError, InputError } from '$lib/server/sweeps/http';
+import { QueueUnavailableError } from '$lib/server/sweeps/runner';
+import { sweepAccess } from '$lib/server/sweeps/access';
+import { createSweep } from '$lib/server/sweeps/service';
+import { listStudies } from '$lib/server/sweeps/studies';
+import { EXAMPLE_SIZING_INPUT } from '$lib/sweep/examples';
+import type { Actions, PageServerLoad } from './$types';
+
+/** Largest spec the builder accepts (form field or uploaded file), in bytes. */
+const MAX_SPEC_BYTES = 256 * 1024;
+
+/** A plain starting point: the sizing example without the swept parameters' catalogue ids. */
+function starterSpec() {
+  return structuredClone(EXAMPLE_SIZING_INPUT);
+}
+
+export const load: PageServerLoad = async ({ locals, params, url }) => {
+  const access = await requireWorkspace(locals, { slug: params.workspace }, 'engineer');
+  const [studies, entries] = await Promise.all([
+    listStudies(locals, { workspace: access.workspace.id }),
+    catalogue.list(access.workspace.id)
+  ]);
+  let spec: unknown = starterSpec();
+  let clonedFrom: { id: number; name: string } | null = null;
+  let studyId = url.searchParams.get('study') ?? '';
+  const cloneRaw = url.searchParams.get('clone');
+  if (cloneRaw) {
+    if (!/^[1-9][0-9]{0,9}$/.test(cloneRaw)) error(404, 'Sweep not found');
+    const { sweep } = await sweepAccess(locals, Number(cloneRaw));
+    if (sweep.workspaceId !== access.workspace.id) error(404, 'Sweep not found');
+    spec = structuredClone(sweep.spec);
+    (spec as { name: string }).name = `${sweep.name} (copy)`.slice(0, 120);
+    clonedFrom = { id: sweep.id, name: sweep.name };
+    studyId ||= sweep.studyId;
+  }
+  if (!studies.some((s) => s.id === studyId)) studyId = studies[0]?.id ?? '';
+  return {
+    ...access,
+    units: locals.user!.units,
+    spec,
+    clonedFrom,
+    studyId,
+    studies: studies.map((s) => ({ id: s.id, name: s.name })),
+    catalogue: entries.map((e) => ({
+      id: String(e.id),
+      name: e.name,
+      ispSeaLevel: e.ispSeaLevelS ?? 0,
+      ispVacuum: e.ispVacuumS
+    })),
+    maxSpecBytes: MAX_SPEC_BYTES
+  };
+};
+
+export const actions: Actions = {
+  create: async ({ locals, params, request }) => {
+    await requireWorkspace(locals, { slug: params.workspace }, 'engineer');
+    const form = await request.formData();
+    const studyId = String(form.get('studyId') ?? '');
+    const specText = String(form.get('spec') ?? '');
+    const start = form.get('intent') !== 'draft';
+    const values = { studyId, spec: specText };
+    if (!studyId) return fail(400, { values, errors: { studyId: 'choose the study this sweep belongs to' } as Record<string, string> });
+    if (specText.length > MAX_SPEC_BYTES)
+      return fail(400, { values, errors: { _: `the specification is larger than ${MAX_SPEC_BYTES / 1024} KiB` } as Record<string, string> });
+    let spec: unknown;
+    try {
+      spec = JSON.parse(specText);
+    } catch {
+      return fail(400, { values, errors: { _: 'the specification is not valid JSON' } as Record<string, string> });
+    }
+    let id: number;
+    try {
+      const sweep = await createSweep(locals, { studyId, spec, start });
+      id = sweep.id;
+    } catch (e) {
+      if (e instanceof InputError) {
+        // The service prefixes spec fields with "spec."; the form keys them by the spec path.
+        const errors: Record<string, string> = {};
+        for (const [k, v] of Object.entries(e.errors)) errors[k === 'spec' ? '_' : k.replace(/^spec\./, '')] = v;
+        return fail(400, { values, errors });
+      }
+      if (e instanceof ConflictError) return fail(409, { values, errors: { studyId: e.message } as Record<string, string> });
+      if (e instanceof QueueUnavailableError)
+        return fail(503, { values, errors: { _: 'The job queue is unavailable right now; the sweep was kept as a draft. Try again shortly.' } as Record<string, string> });
+      if (isHttpError(e) && e.status === 404) return fail(400, { values, errors: { studyId: 'that study does not exist here' } as Record<string, string> });
+      throw e;
+    }
+    redirect(303, `/w/${params.workspace}/sweeps/${id}`);
+  }
+};
