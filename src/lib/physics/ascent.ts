@@ -923,7 +923,7 @@ export interface AscentPayloadOptions {
   warmStart?: AscentSolution;
   /** Return the trajectory of the solution (one extra flight). */
   trajectory?: boolean;
-  /** Maximum simulated flights (default 40). */
+  /** Maximum simulated flights, partial ones included (default 60). */
   maxSimulations?: number;
 }
 
@@ -1069,7 +1069,7 @@ export function ascentPayload(
   const tolH = requireFinite(options.tolerance?.altitude ?? 50, 'tolerance.altitude', 0, false);
   const tolG = requireFinite(options.tolerance?.flightPathAngle ?? 0.005, 'tolerance.flightPathAngle', 0, false);
   const tolV = requireFinite(options.tolerance?.speed ?? 0.5, 'tolerance.speed', 0, false);
-  const maxSims = Math.max(5, Math.floor(requireFinite(options.maxSimulations ?? 40, 'maxSimulations', 0, false)));
+  const maxSims = Math.max(5, Math.floor(requireFinite(options.maxSimulations ?? 60, 'maxSimulations', 0, false)));
   const engine = engineFor(v);
 
   const fail = (reason: AscentInfeasibility, message: string, sims: number, iters: number, kick = 0, pitch = 0): AscentPayloadResult => ({
@@ -1128,20 +1128,16 @@ export function ascentPayload(
     Math.abs(f[0] * SCALE_H) <= tolH && Math.abs(f[1]) <= tolG && Math.abs(f[2] * SCALE_V) <= tolV;
   const kickOf = (xx: Float64Array) => Math.exp(xx[0]);
 
-  /** Cold start: payload from the rocket equation with a loss allowance, kick for γ ≈ 25° at steering start. */
-  const coldGuess = () => {
-    x[1] = 0;
-    x[2] = Math.max(0, rocketPayload(v, Vt + FIRST_GUESS_LOSSES)) / 1000;
-    if (v.steeringStartStage === 0) {
-      x[0] = Math.log(2);
-      return;
-    }
-    // Regula falsi (Illinois variant) in ln(kick) on γ(steering start) − 25°, γ falling
-    // monotonically as the kick grows; partial flights (lower stages only) at twice the step.
+  /**
+   * Kick giving a flight-path angle `goal` [deg] at steering start: regula falsi (Illinois
+   * variant) in ln(kick), γ falling monotonically as the kick grows; partial flights (lower
+   * stages only) at twice the step. Returns ln(kick).
+   */
+  const kickForGamma = (goal: number): number => {
     const gAt = (lnk: number) => {
       sims++;
       const r = engine.fly(x[2] * 1000, Math.exp(lnk) * DEG, 0, 2 * ha, hv, null, true);
-      return (r.fellBack ? -90 : r.gamma / DEG) - GAMMA_AT_STEERING_GUESS;
+      return (r.fellBack ? -90 : r.gamma / DEG) - goal;
     };
     let a = Math.log(0.1);
     let b = Math.log(1);
@@ -1180,120 +1176,169 @@ export function ascentPayload(
         }
       }
     }
-    x[0] = c;
+    return c;
   };
 
-  /** Jacobian: finite differences in ln(kick) and θf; payload column from the rocket equation. */
-  const refreshJacobian = () => {
-    const steps = [0.02, 0.5];
-    for (let c = 0; c < 2; c++) {
+  /**
+   * Jacobian: finite differences in ln(kick) and θf; the payload column from the rocket equation
+   * with the losses frozen (∂(V − V_t)/∂P = dΔv_vac/dP, ∂h/∂P = ∂γ/∂P = 0) on the first build —
+   * which makes the payload update the classical loss iteration — and by finite differences
+   * too (`full`) when the iteration stalls.
+   */
+  const refreshJacobian = (full = false) => {
+    const steps = [0.02, 0.5, Math.max(0.05, 0.02 * x[2])];
+    for (let c = 0; c < (full ? 3 : 2); c++) {
       xn.set(x);
-      const up = c === 0 ? LN_KICK_MAX : PITCH_MAX;
+      const up = c === 0 ? LN_KICK_MAX : c === 1 ? PITCH_MAX : Infinity;
       xn[c] = x[c] + steps[c] > up ? x[c] - steps[c] : x[c] + steps[c];
       const d = xn[c] - x[c];
       evalAt(xn, Fn);
       // Forward difference ∂F/∂x_c.
       for (let r = 0; r < 3; r++) J[r * 3 + c] = (Fn[r] - F[r]) / d;
     }
-    // Rocket-equation column with the losses frozen: ∂(V − V_t)/∂P = dΔv_vac/dP (per tonne, scaled).
-    J[2] = 0;
-    J[5] = 0;
-    J[8] = (dvdp(v, x[2] * 1000) * 1000) / SCALE_V;
+    if (!full) {
+      // Rocket-equation column (per tonne, scaled).
+      J[2] = 0;
+      J[5] = 0;
+      J[8] = (dvdp(v, x[2] * 1000) * 1000) / SCALE_V;
+    }
   };
 
-  const ws = options.warmStart;
-  let warm = false;
-  if (ws && Number.isFinite(ws.pitchKick) && ws.pitchKick > 0 && Number.isFinite(ws.finalPitch) && Number.isFinite(ws.payloadMass)) {
-    x[0] = Math.log(ws.pitchKick);
-    x[1] = ws.finalPitch;
-    x[2] = ws.payloadMass / 1000;
-    clampX(x);
-    warm = true;
-  } else {
-    coldGuess();
-  }
-  let last = evalAt(x, F);
-  if (last.fellBack && warm) {
-    warm = false;
-    coldGuess();
-    last = evalAt(x, F);
-  }
-  if (warm && ws?.jacobian && ws.jacobian.length === 9 && ws.jacobian.every(Number.isFinite)) J.set(ws.jacobian);
-  else refreshJacobian();
+  /**
+   * With no payload, is the burnout speed short by more than the altitude and flight-path misses
+   * could still buy? Energy trade: Δv ≈ g·|Δh|/V + V·|Δγ| (twice that, as a margin), plus tolV.
+   */
+  const shortOfSpeed = (f: Float64Array): boolean => {
+    const g = EARTH.mu / (EARTH.radius + ht) ** 2;
+    const buy = 2 * ((g * Math.abs(f[0] * SCALE_H)) / Vt + Vt * Math.abs(f[1] * DEG));
+    return f[2] * SCALE_V < -(tolV + buy);
+  };
 
+  /** Quasi-Newton from the current x (F, J set): 'ok', 'unreachable' or 'failed'. */
   let iters = 0;
-  let stall = 0;
-  let refreshed = false;
-  while (!converged(F) && sims < maxSims) {
-    iters++;
-    for (let k = 0; k < 3; k++) rhs[k] = -F[k];
-    if (!solve3(J, rhs, dx)) {
-      refreshJacobian();
-      if (!solve3(J, rhs, dx)) break;
-    }
-    // Step limits (a trust region in control units): ln kick ≤ 0.7, θf ≤ 20°, payload ≤ 30 % of the stack.
-    const lim0 = 0.7;
-    const lim1 = 20;
-    const lim2 = (0.3 * v.stackMass) / 1000;
-    const scale = Math.min(1, lim0 / Math.abs(dx[0] || 1e-300), lim1 / Math.abs(dx[1] || 1e-300), lim2 / Math.abs(dx[2] || 1e-300));
-    for (let k = 0; k < 3; k++) dx[k] *= scale;
-    const n0 = norm(F);
-    let accepted = false;
-    let r: RawFlight = last;
-    for (let bt = 0; bt < 5 && sims < maxSims; bt++) {
-      for (let k = 0; k < 3; k++) xn[k] = x[k] + dx[k];
-      clampX(xn);
-      r = evalAt(xn, Fn);
-      if (!r.fellBack && norm(Fn) < 1.2 * n0) {
-        accepted = true;
-        break;
+  let last: RawFlight | null = null;
+  const newton = (budget: number): 'ok' | 'unreachable' | 'failed' => {
+    let stall = 0;
+    let refreshed = false;
+    while (!converged(F)) {
+      if (sims >= budget) return 'failed';
+      iters++;
+      for (let k = 0; k < 3; k++) rhs[k] = -F[k];
+      if (!solve3(J, rhs, dx)) {
+        refreshJacobian();
+        if (!solve3(J, rhs, dx)) return 'failed';
       }
-      // Backtracking line search: halve the step.
-      for (let k = 0; k < 3; k++) dx[k] *= 0.5;
-    }
-    if (!accepted) {
-      if (refreshed) break;
-      refreshed = true;
-      refreshJacobian();
-      continue;
-    }
-    refreshed = false;
-    // Broyden's ("good") rank-one update: J += (ΔF − J·Δx)·Δxᵀ/(Δxᵀ·Δx).
-    const s0 = xn[0] - x[0];
-    const s1 = (xn[1] - x[1]) / 10; // θf difference weighed like ≈ 0.1 in ln kick
-    const s2 = xn[2] - x[2];
-    const ss = s0 * s0 + s1 * s1 * 100 + s2 * s2;
-    if (ss > 0) {
-      for (let row = 0; row < 3; row++) {
-        const pred = J[row * 3] * s0 + J[row * 3 + 1] * s1 * 10 + J[row * 3 + 2] * s2;
-        const c = (Fn[row] - F[row] - pred) / ss;
-        J[row * 3] += c * s0;
-        J[row * 3 + 1] += c * s1 * 10;
-        J[row * 3 + 2] += c * s2;
+      // Step limits (a trust region in control units): ln kick ≤ 0.7, θf ≤ 20°, payload ≤ 30 % of the stack.
+      const lim2 = (0.3 * v.stackMass) / 1000;
+      const scale = Math.min(1, 0.7 / Math.abs(dx[0] || 1e-300), 20 / Math.abs(dx[1] || 1e-300), lim2 / Math.abs(dx[2] || 1e-300));
+      for (let k = 0; k < 3; k++) dx[k] *= scale;
+      const n0 = norm(F);
+      let accepted = false;
+      let r: RawFlight | null = null;
+      for (let bt = 0; bt < 5 && sims < budget; bt++) {
+        for (let k = 0; k < 3; k++) xn[k] = x[k] + dx[k];
+        clampX(xn);
+        r = evalAt(xn, Fn);
+        if (!r.fellBack && norm(Fn) < 1.2 * n0) {
+          accepted = true;
+          break;
+        }
+        // Backtracking line search: halve the step.
+        for (let k = 0; k < 3; k++) dx[k] *= 0.5;
+      }
+      if (!accepted || r === null) {
+        if (refreshed || sims >= budget) return 'failed';
+        refreshed = true;
+        refreshJacobian(true);
+        continue;
+      }
+      refreshed = false;
+      // Broyden's ("good") rank-one update: J += (ΔF − J·Δx)·Δxᵀ/(Δxᵀ·Δx), x in (ln kick, θf°, P t).
+      const s0 = xn[0] - x[0];
+      const s1 = xn[1] - x[1];
+      const s2 = xn[2] - x[2];
+      const ss = s0 * s0 + s1 * s1 + s2 * s2;
+      if (ss > 0) {
+        for (let row = 0; row < 3; row++) {
+          const pred = J[row * 3] * s0 + J[row * 3 + 1] * s1 + J[row * 3 + 2] * s2;
+          const c = (Fn[row] - F[row] - pred) / ss;
+          J[row * 3] += c * s0;
+          J[row * 3 + 1] += c * s1;
+          J[row * 3 + 2] += c * s2;
+        }
+      }
+      const improved = norm(Fn) < 0.5 * n0;
+      x.set(xn);
+      F.set(Fn);
+      last = r;
+      // Payload pinned at zero and still short of the speed: the target cannot be reached.
+      if (x[2] === 0 && shortOfSpeed(F)) return 'unreachable';
+      stall = improved ? 0 : stall + 1;
+      if (stall >= 2) {
+        stall = 0;
+        refreshJacobian(true);
       }
     }
-    const improved = norm(Fn) < 0.5 * n0;
-    x.set(xn);
-    F.set(Fn);
+    return 'ok';
+  };
+
+  // Starting points, tried in turn until one converges (a multi-start shooting): the warm start,
+  // then cold starts — payload from the rocket equation with a 1.7 km/s loss allowance, the kick
+  // for a flight-path angle at steering start of 25°, 40°, 55°, 10° or 70° (low upper-stage
+  // thrust needs a lofted staging), and final pitch 0° or 30°.
+  const ws = options.warmStart;
+  const p0 = Math.max(0, rocketPayload(v, Vt + FIRST_GUESS_LOSSES)) / 1000;
+  const starts: Array<() => boolean> = [];
+  if (ws && Number.isFinite(ws.pitchKick) && ws.pitchKick > 0 && Number.isFinite(ws.finalPitch) && Number.isFinite(ws.payloadMass)) {
+    starts.push(() => {
+      x[0] = Math.log(ws.pitchKick);
+      x[1] = ws.finalPitch;
+      x[2] = ws.payloadMass / 1000;
+      clampX(x);
+      return true;
+    });
+  }
+  const goals = v.steeringStartStage === 0 ? [NaN] : [25, 40, 55, 10, 70];
+  // Second round with 40 % of the payload guess: low upper-stage thrust also means larger losses
+  // than the allowance, and a lighter stack keeps such a stage from falling back.
+  for (const pf of [1, 0.4]) {
+    for (const goal of goals) {
+      let lnk = NaN;
+      for (const th of [0, 30]) {
+        starts.push(() => {
+          x[2] = p0 * pf;
+          if (Number.isNaN(lnk)) lnk = Number.isNaN(goal) ? Math.log(2) : kickForGamma(goal);
+          x[0] = lnk;
+          x[1] = th;
+          return true;
+        });
+      }
+    }
+  }
+  let outcome: 'ok' | 'unreachable' | 'failed' | 'fell' = 'fell';
+  let anyFlew = false;
+  for (let i = 0; i < starts.length && sims < maxSims; i++) {
+    starts[i]();
+    const r = evalAt(x, F);
+    if (r.fellBack) continue;
+    anyFlew = true;
     last = r;
-    // Payload pinned at zero and still short of the speed: the target cannot be reached.
-    if (x[2] === 0 && F[2] * SCALE_V < -tolV && Math.abs(F[0] * SCALE_H) <= 10 * tolH && Math.abs(F[1]) <= 10 * tolG) {
-      return fail('target-unreachable', `with no payload the targeted burnout speed is ${(Vt + F[2] * SCALE_V).toFixed(0)} m/s, below the target ${Vt.toFixed(0)} m/s`, sims, iters, kickOf(x), x[1]);
-    }
-    stall = improved ? 0 : stall + 1;
-    if (stall >= 3) {
-      stall = 0;
-      refreshJacobian();
-    }
+    const isWarm = i === 0 && ws !== undefined && starts.length > goals.length * 4;
+    if (isWarm && ws?.jacobian && ws.jacobian.length === 9 && ws.jacobian.every(Number.isFinite)) J.set(ws.jacobian);
+    else refreshJacobian();
+    // Each start may use up to half of what is left of the flight budget (at least 12 flights).
+    const budget = Math.min(maxSims, sims + Math.max(12, Math.ceil((maxSims - sims) / 2)));
+    outcome = newton(budget);
+    if (outcome === 'ok' || outcome === 'unreachable') break;
   }
-  if (last.fellBack) {
-    return fail('fell-back', 'the flight falls back to the ground for the controls tried', sims, iters, kickOf(x), x[1]);
-  }
-  if (!converged(F) && x[2] === 0 && F[2] < 0) {
+  if (outcome === 'unreachable' || (outcome === 'failed' && x[2] === 0 && shortOfSpeed(F))) {
     return fail('target-unreachable', `with no payload the best burnout speed found is ${(Vt + F[2] * SCALE_V).toFixed(0)} m/s, below the target ${Vt.toFixed(0)} m/s (miss ${(F[0] * SCALE_H).toFixed(0)} m, ${F[1].toFixed(3)}°)`, sims, iters, kickOf(x), x[1]);
   }
-  if (!converged(F)) {
-    return fail('targeting-failed', `the shooting method did not converge in ${sims} flights (miss: ${(F[0] * SCALE_H).toFixed(0)} m, ${F[1].toFixed(3)}°, ${(F[2] * SCALE_V).toFixed(1)} m/s)`, sims, iters, kickOf(x), x[1]);
+  if (!anyFlew || last === null) {
+    return fail('fell-back', 'the flight falls back to the ground for every starting control tried', sims, iters, kickOf(x), x[1]);
+  }
+  if (outcome !== 'ok') {
+    return fail('targeting-failed', `the shooting method did not converge in ${sims} flights (last miss: ${(F[0] * SCALE_H).toFixed(0)} m, ${F[1].toFixed(3)}°, ${(F[2] * SCALE_V).toFixed(1)} m/s)`, sims, iters, kickOf(x), x[1]);
   }
   let rec: AscentTrajectory | null = null;
   if (options.trajectory) {
