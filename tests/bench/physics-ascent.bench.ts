@@ -142,6 +142,53 @@ console.log('Loftwise ascent benchmark (one core; figures vary ±10–40 % on a 
   console.log('');
 }
 
+// 2b. A wide sweep, including hard and infeasible corners --------------------------------------
+{
+  const cases: Array<{ v: ReturnType<typeof compileAscentVehicle>; alt: number }> = [];
+  const isps = quick ? [340] : [340, 450];
+  for (const nst of [2, 3])
+    for (const tw1 of [1.15, 1.3, 1.6, 2.0])
+      for (const tw2 of [0.4, 0.7, 1.2])
+        for (const alt of [150e3, 300e3, 800e3])
+          for (const isp2 of isps) {
+            const st =
+              nst === 2
+                ? [
+                    { propellantMass: 400e3, dryMass: 28e3, thrustVacuum: 0, ispVacuum: 320, ispSeaLevel: 290 },
+                    { propellantMass: 100e3, dryMass: 8e3, thrustVacuum: 0, ispVacuum: isp2, ispSeaLevel: isp2 - 100 }
+                  ]
+                : [
+                    { propellantMass: 400e3, dryMass: 28e3, thrustVacuum: 0, ispVacuum: 320, ispSeaLevel: 290 },
+                    { propellantMass: 90e3, dryMass: 7e3, thrustVacuum: 0, ispVacuum: 340, ispSeaLevel: 250 },
+                    { propellantMass: 20e3, dryMass: 2.5e3, thrustVacuum: 0, ispVacuum: isp2, ispSeaLevel: isp2 - 100 }
+                  ];
+            let above = 10e3;
+            const ign: number[] = [];
+            for (let i = st.length - 1; i >= 0; i--) {
+              above += st[i].propellantMass + st[i].dryMass;
+              ign[i] = above;
+            }
+            st[0].thrustVacuum = tw1 * ign[0] * 9.80665 * (320 / 290);
+            for (let i = 1; i < st.length; i++) st[i].thrustVacuum = tw2 * ign[i] * 9.80665;
+            cases.push({ v: compileAscentVehicle({ stages: st, referenceArea: 10, dragCoefficient: DEFAULT_DRAG_COEFFICIENT, nominalPayloadMass: 10e3 }), alt });
+          }
+  let prev: AscentSolution | undefined;
+  let sims = 0;
+  const reasons: Record<string, number> = {};
+  const t0 = performance.now();
+  for (const c of cases) {
+    const r = ascentPayload(c.v, { altitude: c.alt }, { warmStart: prev });
+    sims += r.simulations;
+    const key = r.feasible ? 'feasible' : r.reasons[0];
+    reasons[key] = (reasons[key] ?? 0) + 1;
+    if (r.feasible) prev = r.solution;
+  }
+  const ms = performance.now() - t0;
+  console.log(`2b. Wide sweep (2–3 stages, lift-off T/W 1.15–2.0, upper-stage T/W 0.4–1.2, direct ascent to 150–800 km), ${cases.length} cases`);
+  console.log(`   ${fmt((cases.length / ms) * 1000, 0)} cases/s per core, ${fmt(sims / cases.length)} flights/case; outcomes ${JSON.stringify(reasons)}`);
+  console.log('');
+}
+
 // 4. Sizing ---------------------------------------------------------------------------------
 {
   const payloads = quick ? [10e3, 12e3] : [8e3, 10e3, 12e3, 14e3, 16e3, 18e3, 20e3, 22e3];

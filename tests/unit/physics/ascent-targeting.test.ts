@@ -77,6 +77,21 @@ describe('targeting by the shooting method', () => {
   });
 });
 
+describe('regression: low upper-stage thrust needs a lofted start (multi-start shooting)', () => {
+  it('a hydrogen-class upper stage at T/W 0.7 reaches 150 km from a cold start', () => {
+    // Before the multi-start this case ended 'fell-back' from the single 25° staging guess.
+    const st = notionalStages();
+    st[1] = { ...st[1], ispVacuum: 450, ispSeaLevel: 350, dryMass: 8e3 };
+    st[0] = { ...st[0], thrustVacuum: 1.3 * 546e3 * 9.80665 * (320 / 290) };
+    st[1].thrustVacuum = 0.7 * 118e3 * 9.80665;
+    const r = ascentPayload({ stages: st, referenceArea: 10, dragCoefficient: DEFAULT_DRAG_COEFFICIENT, nominalPayloadMass: 10e3 }, { altitude: 150e3 });
+    expect(r.feasible, r.message).toBe(true);
+    expect(Math.abs(r.burnout.altitude - 150e3)).toBeLessThanOrEqual(50);
+    expect(Math.abs(r.burnout.flightPathAngle)).toBeLessThanOrEqual(0.005);
+    expect(r.payloadMass).toBeGreaterThan(0);
+  });
+});
+
 describe('simulated losses feed the delta-v budget', () => {
   it('terms carry origin "simulated" and the budget losses equal vacuum Δv − burnout speed', () => {
     const r = ascentPayload(notionalVehicle(), TARGET);
