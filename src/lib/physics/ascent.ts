@@ -696,7 +696,8 @@ function burnoutOf(r: RawFlight): BurnoutState {
  * dV/dt = (T − D)/m − g·sin γ; dγ/dt = −(g/V − V/r)·cos γ; dh/dt = V·sin γ;
  * dx/dt = (R/r)·V·cos γ; dm/dt = −ṁ, with ṁ = T_vac/(G0·Isp_vac), T = ṁ·G0·Isp(h),
  * Isp(h) = Isp_vac − (Isp_vac − Isp_sl)·p(h)/p(0), D = ½ρV²·Cd(V/a)·A, g = μ/r², r = R + h,
- * planar point mass over a spherical non-rotating Earth (EARTH.radius, EARTH.mu), USSA 1976.
+ * planar point mass over a spherical non-rotating Earth (EARTH.radius, EARTH.mu), USSA 1976
+ * (`atmosphere()` read through the 50 m table of `./atmosphere-table`, ≤ 1.1e-5 relative).
  * Stage i+1 ignites the instant stage i burns out and drops its dry mass.
  *
  * Integrator: fixed-step RK4 with steps aligned to each burnout (ṁ constant ⇒ burnout times known);
@@ -715,11 +716,12 @@ function burnoutOf(r: RawFlight): BurnoutState {
  * @see Gravity-turn equations: any flight-mechanics text (e.g. Wiesel, Spaceflight Dynamics;
  *   from memory); USSA 1976 for the atmosphere; DESIGN.md §3 for the contract.
  * @example
- * const r = simulateGravityTurn({ stages: [{ propellantMass: 4e5, dryMass: 3e4, thrustVacuum: 7e6,
- *   ispVacuum: 330, ispSeaLevel: 300 }, { propellantMass: 9e4, dryMass: 8e3, thrustVacuum: 1.2e6,
- *   ispVacuum: 350, ispSeaLevel: 250 }], payloadMass: 1e4, referenceArea: 12,
- *   dragCoefficient: [[0, 0.3], [1.2, 0.55], [5, 0.25]], verticalRiseTime: 10, pitchKick: 1.5 });
- * r.burnout.speed; // ≈ 7 km/s class
+ * const r = simulateGravityTurn({ stages: [
+ *   { propellantMass: 4e5, dryMass: 2.8e4, thrustVacuum: 7.7e6, ispVacuum: 320, ispSeaLevel: 290 },
+ *   { propellantMass: 1e5, dryMass: 7e3, thrustVacuum: 1e6, ispVacuum: 345, ispSeaLevel: 250 }],
+ *   payloadMass: 15e3, referenceArea: 10, dragCoefficient: DEFAULT_DRAG_COEFFICIENT,
+ *   verticalRiseTime: 10, pitchKick: 0.2 });
+ * r.burnout.speed; // ≈ 7900 m/s at ≈ 298 km, γ ≈ 0.36° (a kick of 0.3° already falls back)
  */
 export function simulateGravityTurn(
   input: GravityTurnInput,
