@@ -165,6 +165,13 @@ export interface AscentVehicle {
    * (then steering starts at the pitch-over).
    */
   steeringStartStage?: number;
+  /**
+   * Gravity-turn time flown by the steering start stage before the steering starts [s], ≥ 0 and
+   * shorter than that stage's burn (after the vertical rise for stage 0). Default 0 with two or
+   * more stages; for a single stage 40 % of the burn after the vertical rise, so that the
+   * atmospheric part is flown as a gravity turn (thrust along the velocity through max-Q).
+   */
+  steeringDelay?: number;
 }
 
 /** Controls of one flight: the pitch kick and the linear-tangent law's end point. */
@@ -226,6 +233,7 @@ export interface CompiledAscentVehicle {
   readonly drag: DragTable;
   readonly verticalRiseTime: number;
   readonly steeringStartStage: number;
+  readonly steeringDelay: number;
 }
 
 function requireFinite(value: unknown, field: string, min: number, minInclusive: boolean, max = Infinity): number {
@@ -321,7 +329,12 @@ export function compileAscentVehicle(vehicle: AscentVehicle): CompiledAscentVehi
   if (!Number.isInteger(steer) || steer < 0 || steer >= n) {
     throw new RangeError(`steeringStartStage must be an integer from 0 to ${n - 1}, got ${String(steer)}`);
   }
-  return { stageCount: n, ...st, referenceArea, drag, verticalRiseTime, steeringStartStage: steer };
+  const avail = st.burnTime[steer] - (steer === 0 ? verticalRiseTime : 0);
+  const steeringDelay = requireFinite(vehicle.steeringDelay ?? (n === 1 ? 0.4 * avail : 0), 'steeringDelay', 0, true);
+  if (steeringDelay >= avail) {
+    throw new RangeError(`steeringDelay must be shorter than the steered stage's remaining burn (${avail.toFixed(1)} s), got ${steeringDelay}`);
+  }
+  return { stageCount: n, ...st, referenceArea, drag, verticalRiseTime, steeringStartStage: steer, steeringDelay };
 }
 
 /** Raw numbers of one flight (internal; converted to the public shapes by the callers). */
@@ -583,6 +596,8 @@ class FlightEngine {
     let steerDuration = 0;
     for (let i = steerStage; i < n; i++) steerDuration += v.burnTime[i] + (i < n - 1 ? v.coastAfter[i] : 0);
     if (steerStage === 0) steerDuration -= v.verticalRiseTime;
+    const delay = steerStage < n ? v.steeringDelay : 0;
+    steerDuration -= delay;
     let steering = false;
     let vacuumDeltaV = 0;
     let ok = true;
@@ -611,8 +626,13 @@ class FlightEngine {
         this.mode = MODE_TURN;
       }
       if (ok && i >= steerStage && !steering) {
+        if (delay > 0) {
+          // Gravity turn for `steeringDelay` s of this stage before the steering takes over.
+          ok = this.integrate(delay, hAtmo);
+          burn -= delay;
+        }
         if (stopAtSteering) break;
-        startSteering();
+        if (ok) startSteering();
       }
       if (ok) ok = this.integrate(burn, steering ? hVac : hAtmo);
       // Burnout state of this stage (before jettison): peak axial acceleration lives here.
@@ -747,7 +767,8 @@ export function simulateGravityTurn(
     referenceArea,
     drag,
     verticalRiseTime: tv,
-    steeringStartStage: 0
+    steeringStartStage: 0,
+    steeringDelay: 0
   };
   const rec = options.trajectory ? newTrajectory() : null;
   const r = new FlightEngine(v).fly(payload, kick * DEG, NaN, h, h, rec);
@@ -1300,7 +1321,7 @@ export function ascentPayload(
       return true;
     });
   }
-  const goals = v.steeringStartStage === 0 ? [NaN] : [25, 40, 55, 10, 70];
+  const goals = v.steeringStartStage === 0 && v.steeringDelay === 0 ? [NaN] : [25, 40, 55, 10, 70];
   // Second round with 40 % of the payload guess: low upper-stage thrust also means larger losses
   // than the allowance, and a lighter stack keeps such a stage from falling back.
   for (const pf of [1, 0.4]) {

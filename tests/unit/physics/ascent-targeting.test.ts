@@ -92,6 +92,30 @@ describe('regression: low upper-stage thrust needs a lofted start (multi-start s
   });
 });
 
+describe('timeline variants', () => {
+  it('a coast between the stages lengthens the flight by exactly the coast and still reaches the target', () => {
+    const veh = notionalVehicle();
+    const stages = veh.stages.map((st, i) => (i === 0 ? { ...st, coastAfter: 20 } : st));
+    const r = ascentPayload({ ...veh, stages }, TARGET);
+    const burns = stages.reduce((a, st) => a + (st.propellantMass * 9.80665 * st.ispVacuum) / st.thrustVacuum, 0);
+    expect(r.feasible, r.message).toBe(true);
+    expect(r.burnout.time).toBeCloseTo(burns + 20, 6);
+    expect(Math.abs(r.burnout.altitude - 200e3)).toBeLessThanOrEqual(50);
+  });
+  it('a single-stage vehicle flies a gravity turn, then steers (default steering delay), to the target', () => {
+    // Invented hydrogen-class single stage, 5 % dry mass: vacuum Δv with no payload ≈ 13 km/s.
+    const ssto = { stages: [{ propellantMass: 450e3, dryMass: 25e3, thrustVacuum: 7.5e6, ispVacuum: 450, ispSeaLevel: 380 }], referenceArea: 10, dragCoefficient: DEFAULT_DRAG_COEFFICIENT };
+    const r = ascentPayload(ssto, TARGET);
+    expect(r.feasible, r.message).toBe(true);
+    expect(Math.abs(r.burnout.flightPathAngle)).toBeLessThanOrEqual(0.005);
+    expect(r.payloadMass).toBeGreaterThan(0);
+    expect(r.losses.steering).toBeGreaterThan(0);
+  });
+  it('steeringDelay beyond the burn is a RangeError naming it', () => {
+    expect(() => compileAscentVehicle({ ...notionalVehicle(), steeringDelay: 1e4 })).toThrow(/steeringDelay/);
+  });
+});
+
 describe('simulated losses feed the delta-v budget', () => {
   it('terms carry origin "simulated" and the budget losses equal vacuum Δv − burnout speed', () => {
     const r = ascentPayload(notionalVehicle(), TARGET);
