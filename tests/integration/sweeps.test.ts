@@ -17,6 +17,8 @@ import { enqueueChunks } from '../../src/lib/server/sweeps/runner';
 import { cancelSweep, createSweep, getSweep, pauseSweep, resumeSweep } from '../../src/lib/server/sweeps/service';
 import { MODEL_VERSION } from '../../src/lib/server/sweeps/engine';
 import type { Running } from '../helpers/processes';
+import { front } from '../../src/lib/server/sweeps/results';
+import { paretoRanks } from '../../src/lib/sweep/pareto';
 import { killHard, localsFor, newStudy, sizingSpec, sweepRow, waitFor, waitForStatus, workers } from './sweeps-support';
 
 let mailbox: SMTPServer | null = null;
@@ -155,6 +157,17 @@ describe('one worker', () => {
     await new Promise((r) => setTimeout(r, 1_000));
     expect((await sweepRow(created.id)).doneCases).toBe(frozen.doneCases);
     expect((await countRows(created.id)).n).toBe(frozen.doneCases);
+
+    // The live front (merged per-chunk marks) is exactly the non-dominated set of what is stored.
+    const live = await front(frozen);
+    expect(live.live).toBe(true);
+    const stored = (await withConnection((c) =>
+      c.query({ sql: 'SELECT case_index, glow, dry_mass FROM sweep_cases WHERE sweep_id = ? AND feasible = 1 ORDER BY case_index', rowsAsArray: true }, [frozen.id])
+    )) as number[][];
+    const ranks = paretoRanks([Float64Array.from(stored, (r) => r[1]), Float64Array.from(stored, (r) => r[2])], ['min', 'min']);
+    const expected = stored.filter((_, i) => ranks[i] === 1).map((r) => r[0]);
+    expect(expected.length).toBeGreaterThan(0);
+    expect(live.cases.map((c) => c.caseIndex).sort((a, b) => a - b)).toEqual(expected);
 
     const resumed = await resumeSweep(engineer, created.id);
     expect(resumed.status).toBe('queued');
