@@ -32,6 +32,12 @@ function plain(r: Row): CatalogueEntry {
   };
 }
 
+/** Only the entry's own fields, whatever else the caller's object carries (ids, workspace). */
+function fields(e: CatalogueEntryInput): CatalogueEntryInput {
+  const { name, propellants, ispSeaLevelS, ispVacuumS, thrustVacuumN, massKg, notes } = e;
+  return { name, propellants, ispSeaLevelS, ispVacuumS, thrustVacuumN, massKg, notes };
+}
+
 export async function list(workspaceId: string): Promise<CatalogueEntry[]> {
   const rows = await Row.findAll({ where: { workspaceId }, order: [['name', 'ASC']] });
   return rows.map(plain);
@@ -44,7 +50,7 @@ export async function read(workspaceId: string, id: number): Promise<CatalogueEn
 
 export async function create(workspaceId: string, input: CatalogueEntryInput): Promise<CatalogueEntry> {
   try {
-    return plain(await Row.create({ workspaceId, ...input }));
+    return plain(await Row.create({ ...fields(input), workspaceId }));
   } catch (e) {
     if (e instanceof UniqueConstraintError) throw new DuplicateNameError(input.name);
     throw e;
@@ -56,7 +62,7 @@ export async function update(workspaceId: string, id: number, input: CatalogueEn
   const r = await Row.findOne({ where: { id, workspaceId } });
   if (!r) return null;
   try {
-    await r.update(input);
+    await r.update(fields(input));
   } catch (e) {
     if (e instanceof UniqueConstraintError) throw new DuplicateNameError(input.name);
     throw e;
@@ -75,7 +81,7 @@ export async function destroy(workspaceId: string, id: number): Promise<boolean>
 export async function importEntries(workspaceId: string, entries: CatalogueEntryInput[]): Promise<number> {
   try {
     await sequelize.transaction(async (transaction) => {
-      for (const e of entries) await Row.create({ workspaceId, ...e }, { transaction });
+      for (const e of entries) await Row.create({ ...fields(e), workspaceId }, { transaction });
     });
   } catch (e) {
     if (e instanceof UniqueConstraintError) {
