@@ -962,6 +962,8 @@ const SCALE_H = 1000;
 const SCALE_V = 10;
 /** Loss allowance for the first payload guess [m/s] (common practice: 1.5–2 km/s to low orbit). */
 const FIRST_GUESS_LOSSES = 1700;
+/** Lowest ignition T/W of the first steered stage that the first payload guess allows. */
+const MIN_GUESS_UPPER_TW = 0.5;
 
 /**
  * Payload P for which the vacuum rocket equation gives `deltaV`:
@@ -1269,7 +1271,7 @@ export function ascentPayload(
         // Backtracking line search: halve the step.
         for (let k = 0; k < 3; k++) dx[k] *= 0.5;
       }
-      if (!accepted || r === null) {
+        if (!accepted || r === null) {
         if (refreshed || sims >= budget) return 'failed';
         refreshed = true;
         refreshJacobian(true);
@@ -1310,7 +1312,12 @@ export function ascentPayload(
   // for a flight-path angle at steering start of 25°, 40°, 55°, 10° or 70° (low upper-stage
   // thrust needs a lofted staging), and final pitch 0° or 30°.
   const ws = options.warmStart;
-  const p0 = Math.max(0, rocketPayload(v, Vt + FIRST_GUESS_LOSSES)) / 1000;
+  // Cap: keep the first steered stage's ignition T/W ≥ 0.5 if any payload allows it (heavier
+  // guesses make low-thrust upper stages fall back before the shooting can start).
+  let stackAbove = 0;
+  for (let i = v.steeringStartStage; i < v.stageCount; i++) stackAbove += v.propellantMass[i] + v.dryMass[i];
+  const pCap = v.thrustVacuum[v.steeringStartStage] / (MIN_GUESS_UPPER_TW * G0) - stackAbove;
+  const p0 = Math.max(0, Math.min(rocketPayload(v, Vt + FIRST_GUESS_LOSSES), pCap)) / 1000;
   const starts: Array<() => boolean> = [];
   if (ws && Number.isFinite(ws.pitchKick) && ws.pitchKick > 0 && Number.isFinite(ws.finalPitch) && Number.isFinite(ws.payloadMass)) {
     starts.push(() => {
