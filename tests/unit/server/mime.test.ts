@@ -3,13 +3,13 @@
  * library that sends Loftwise's mail), plus the RFC 2047 §8 examples of encoded words.
  */
 import { describe, expect, it } from 'vitest';
-// @ts-expect-error nodemailer ships no types for its internal modules
 import MailComposer from 'nodemailer/lib/mail-composer/index.js';
+import type Mail from 'nodemailer/lib/mailer';
 import { decodeEncodedWords, decodeQuotedPrintable, readMessage } from '../../../src/lib/server/mime';
 
-function compose(mail: Record<string, unknown>): Promise<string> {
+function compose(mail: Mail.Options): Promise<string> {
   return new Promise((resolve, reject) =>
-    new MailComposer(mail).compile().build((err: Error | null, msg: Buffer) => (err ? reject(err) : resolve(msg.toString('utf8'))))
+    new MailComposer(mail).compile().build((err, msg) => (err ? reject(err) : resolve(msg.toString('utf8'))))
   );
 }
 
