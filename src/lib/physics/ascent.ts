@@ -36,7 +36,7 @@
  * km-scaled state) and against a 0.02 s / 0.05 s run of the same RK4: burnout speed ≤ 0.1 m/s,
  * altitude ≤ 40 m, flight-path angle ≤ 0.001°, each loss ≤ 0.1 m/s, max-Q ≤ 0.2 % (max-Q sits
  * on the tropopause kink of the atmosphere, which caps the order there); the targeted payload
- * ≤ 0.02 % from a tight-tolerance reference over a 100-case sweep. RK4's h⁴ error made 2 s / 10 s
+ * ≤ 0.03 % from a tight-tolerance reference over a 100-case sweep (measured max 0.023 %). RK4's h⁴ error made 2 s / 10 s
  * steps just as good for the payload, but max-Q then errs by 0.4–0.6 %: hence 1 s in the
  * atmosphere. tests/unit/physics/ascent-integrator.test.ts holds the bounds (≈ 3× measured);
  * tests/bench/physics-ascent.bench.ts prints the measured values.
