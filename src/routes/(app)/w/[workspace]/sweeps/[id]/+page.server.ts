@@ -1,0 +1,46 @@
+import { fail } from '@sveltejs/kit';
+import { Study } from '$lib/server/db/models';
+import { sweepView } from '$lib/server/sweeps/service';
+import { createShareLink, listShareLinks, revokeShareLink, SHARE_EXPIRY_DAYS } from '$lib/server/share-links';
+import { sweepForPage } from './sweep.server';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, params }) => {
+  const { sweep, workspace, role } = await sweepForPage(locals, params);
+  const [study, links] = await Promise.all([
+    Study.findByPk(sweep.studyId),
+    role === 'viewer' ? Promise.resolve([]) : listShareLinks(sweep.id)
+  ]);
+  return {
+    workspace,
+    role,
+    units: locals.user!.units,
+    sweep: sweepView(sweep, { spec: true }),
+    study: study ? { id: study.id, name: study.name } : null,
+    shareLinks: links,
+    expiryChoices: SHARE_EXPIRY_DAYS
+  };
+};
+
+export const actions: Actions = {
+  share: async ({ locals, params, request, url }) => {
+    const { sweep } = await sweepForPage(locals, params, 'engineer');
+    const form = await request.formData();
+    const label = String(form.get('label') ?? '').trim();
+    const days = Number(form.get('days'));
+    const values = { label, days: String(form.get('days') ?? '') };
+    if (label.length > 120) return fail(400, { share: { values, errors: { label: 'the label is at most 120 characters' } } });
+    if (!SHARE_EXPIRY_DAYS.includes(days)) return fail(400, { share: { values, errors: { days: `choose ${SHARE_EXPIRY_DAYS.join(', ')} days` } } });
+    const { token, link } = await createShareLink(sweep.id, locals.user!.id, label || `Report of ${sweep.name}`.slice(0, 120), days);
+    // The token is shown once: only its hash is stored.
+    return { created: { ...link, url: `${url.origin}/share/${token}` } };
+  },
+  revoke: async ({ locals, params, request }) => {
+    const { sweep } = await sweepForPage(locals, params, 'engineer');
+    const id = Number((await request.formData()).get('linkId'));
+    if (!Number.isInteger(id) || id < 1) return fail(400, { revoke: { error: 'unknown share link' } });
+    const ok = await revokeShareLink(sweep.id, id);
+    if (!ok) return fail(404, { revoke: { error: 'that share link is not on this sweep' } });
+    return { revoked: id };
+  }
+};
