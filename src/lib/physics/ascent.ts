@@ -13,6 +13,14 @@
  *   target (altitude, flight-path angle 0, speed), with the pitch kick and the steering law found
  *   by a shooting method; gravity, drag, steering and back-pressure losses; constraints' inputs.
  * - `compileAscentVehicle(vehicle)`: validates and packs a vehicle once (sweeps reuse it).
+ * - `ascentBudgetLosses(result)`: the simulated losses as delta-v budget inputs.
+ * (Sizing for a required payload lives in `./ascent-sizing`.)
+ *
+ * Steering family and its limit: the linear-tangent law starts at the flight-path angle of the
+ * staging point (no attitude jump), so the kick and the law's end point are the only controls.
+ * Upper stages with ignition T/W below ≈ 0.5, or direct ascents to high orbits, can then have no
+ * solution in the family: such cases come back infeasible ('fell-back' / 'targeting-failed'),
+ * never NaN; insert into a low orbit and let the budget add the transfer instead.
  *
  * Equations of motion (the gravity-turn equations of any flight-mechanics text, e.g. Wiesel,
  * Spaceflight Dynamics, ch. on launch vehicles; from memory), state (V, γ, h, x, m):
@@ -36,9 +44,9 @@
  * km-scaled state) and against a 0.02 s / 0.05 s run of the same RK4: burnout speed ≤ 0.1 m/s,
  * altitude ≤ 40 m, flight-path angle ≤ 0.001°, each loss ≤ 0.1 m/s, max-Q ≤ 0.2 % (max-Q sits
  * on the tropopause kink of the atmosphere, which caps the order there); the targeted payload
- * ≤ 0.03 % from a tight-tolerance reference over a 100-case sweep (measured max 0.023 %). RK4's h⁴ error made 2 s / 10 s
- * steps just as good for the payload, but max-Q then errs by 0.4–0.6 %: hence 1 s in the
- * atmosphere. tests/unit/physics/ascent-integrator.test.ts holds the bounds (≈ 3× measured);
+ * ≤ 0.03 % from a tight-tolerance reference over a 100-case sweep (measured max 0.023 %).
+ * RK4's h⁴ error made 2 s / 10 s steps just as good for the payload, but max-Q then errs by
+ * 0.4–0.6 %: hence 1 s in the atmosphere. tests/unit/physics/ascent-integrator.test.ts holds the bounds (≈ 3× measured);
  * tests/bench/physics-ascent.bench.ts prints the measured values.
  * Atmosphere: U.S. Standard Atmosphere 1976 from `./atmosphere`, read through the 50 m table of
  * `./atmosphere-table` (linear interpolation, ≈ 1e-5 relative; no allocation, no exp per call).

@@ -157,7 +157,17 @@ export function dragCoefficient(
   return cdAt(t, mach);
 }
 
-/** True for a compiled {@link DragTable} (as opposed to a raw `[mach, cd][]`). */
+/**
+ * True for a compiled {@link DragTable} (as opposed to a raw `[mach, cd][]`): a type guard on
+ * the three Float64Array fields.
+ *
+ * @param x any value.
+ * @returns whether `x` is a compiled drag table.
+ * @see compileDragTable.
+ * @example
+ * isDragTable(compileDragTable([[0, 0.3]])); // true
+ * isDragTable([[0, 0.3]]); // false
+ */
 export function isDragTable(x: unknown): x is DragTable {
   return (
     typeof x === 'object' &&
