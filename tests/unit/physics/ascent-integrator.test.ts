@@ -141,6 +141,18 @@ describe('closed-form limits', () => {
     expect(r.gravityLoss).toBeGreaterThanOrEqual((g - dg) * tb);
   });
 
+  it('max axial acceleration equals T/m at the stage burnout where it peaks (constant thrust, no drag)', () => {
+    // Two stages, vacuum thrust constant (Isp_sl = Isp_vac), no drag: (T − D)/m peaks at a
+    // burnout, T_i/m_bo,i, exactly (the integrator probes the state at each burnout).
+    const s2 = { propellantMass: 20_000, dryMass: 3_000, thrustVacuum: 400e3, ispVacuum: 300, ispSeaLevel: 300 };
+    const r = simulateGravityTurn({ ...input, stages: [stage, s2], verticalRiseTime: 10, pitchKick: 5 });
+    const m0 = 30_000 + 70_000 + 23_000;
+    const bo1 = m0 - stage.propellantMass;
+    const bo2 = 30_000 + s2.dryMass;
+    const expected = Math.max(stage.thrustVacuum / bo1, s2.thrustVacuum / bo2);
+    near('maxAxialAcceleration [m/s²]', r.maxAxialAcceleration, expected, 1e-9 * expected);
+  });
+
   it('pitched flight in vacuum: the rocket equation still holds and the speed balance closes', () => {
     const r = simulateGravityTurn({ ...input, verticalRiseTime: 5, pitchKick: 30 });
     near('identity [m/s]', r.burnout.speed, r.idealDeltaV - r.gravityLoss - r.dragLoss, 1e-6);
