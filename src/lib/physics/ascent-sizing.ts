@@ -163,6 +163,9 @@ export function sizeAscentVehicle(
   const payload = check(input.payloadMass, 'payloadMass', (v) => v > 0 && v <= 1e9, '> 0 and ≤ 1e9 kg');
   const relTol = check(options.tolerance ?? 2e-4, 'tolerance', (v) => v > 0 && v < 0.1, 'in (0, 0.1)');
   const maxPasses = Math.floor(check(options.maxPasses ?? 12, 'maxPasses', (v) => v >= 1 && v <= 100, 'in [1, 100]'));
+  if (typeof target !== 'object' || target === null) throw new RangeError('target must be an object');
+  check(target.altitude, 'target.altitude', (v) => v >= 50e3 && v <= 2e6, 'in [50000, 2000000] m');
+  if (target.speed !== undefined) check(target.speed, 'target.speed', (v) => v > 0 && v <= 20000, 'in (0, 20000] m/s');
   const stagingStages = st.map((s) => ({ isp: s.ispVacuum, structuralCoefficient: s.structuralCoefficient }));
 
   const ws = options.warmStart;
@@ -186,10 +189,10 @@ export function sizeAscentVehicle(
     ascent: last,
     solution: { pitchKick: shoot?.pitchKick ?? 1, finalPitch: shoot?.finalPitch ?? 0, payloadMass: payload, losses }
   });
-  const Vt = target?.speed;
+  const Vt = target.speed;
   for (let pass = 1; pass <= maxPasses; pass++) {
     // Target speed (ascentPayload validates the target): given, or circular √(μ/(R + h)).
-    const vt = Vt ?? Math.sqrt(EARTH.mu / (EARTH.radius + (target?.altitude ?? 0)));
+    const vt = Vt ?? Math.sqrt(EARTH.mu / (EARTH.radius + target.altitude));
     sizedDv = vt + losses;
     // Optimal staging for Δv = V_t + L (Lagrange multipliers, vacuum Isp).
     const sizing = sizeForPayload(stagingStages, Math.min(sizedDv, 1e5), payload);

@@ -271,6 +271,7 @@ describe('RangeError naming the field for non-physical input', () => {
     ['bad steering stage', () => compileAscentVehicle({ ...notionalVehicle(), steeringStartStage: 5 }), /steeringStartStage/],
     ['final pitch out of range', () => simulateAscent(notionalVehicle(), 1000, { pitchKick: 1, finalPitch: 120 }), /finalPitch/],
     ['sizing: ε ≥ 1', () => sizeAscentVehicle({ stages: [{ ispVacuum: 300, ispSeaLevel: 280, structuralCoefficient: 1, thrustToWeight: 1.3 }], payloadMass: 1000, referenceArea: 5, dragCoefficient: DEFAULT_DRAG_COEFFICIENT }, TARGET), /stages\[0\]\.structuralCoefficient/],
+    ['sizing: target altitude not finite', () => sizeAscentVehicle({ stages: [{ ispVacuum: 300, ispSeaLevel: 280, structuralCoefficient: 0.1, thrustToWeight: 1.3 }], payloadMass: 1000, referenceArea: 5, dragCoefficient: DEFAULT_DRAG_COEFFICIENT }, { altitude: Number.NaN }), /target\.altitude/],
     ['sizing: lift-off T/W ≤ 1', () => sizeAscentVehicle({ stages: [{ ispVacuum: 300, ispSeaLevel: 280, structuralCoefficient: 0.1, thrustToWeight: 0.9 }], payloadMass: 1000, referenceArea: 5, dragCoefficient: DEFAULT_DRAG_COEFFICIENT }, TARGET), /stages\[0\]\.thrustToWeight/]
   ];
   for (const [name, fn, re] of cases) {
