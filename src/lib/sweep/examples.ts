@@ -109,7 +109,7 @@ export const EXAMPLE_PAYLOAD_INPUT: SweepSpecInput = {
     sampling: { plan: 'latinHypercube', samples: 500, seed: 20240611 }
   },
   mode: 'budget',
-  constraints: { payloadFloor: 150, maxAxialAcceleration: 60 },
+  constraints: { payloadFloor: 150, maxAxialAcceleration: 70 },
   objectives: [
     { metric: 'payloadMass', direction: 'max' },
     { metric: 'totalLosses', direction: 'min' },
@@ -133,8 +133,8 @@ export const EXAMPLE_ASCENT_INPUT: SweepSpecInput = {
     )
   },
   mode: 'ascent',
-  ascent: { verticalRiseTime: 10, pitchKick: 3 },
-  constraints: { maxDynamicPressure: 45_000, maxAxialAccelerationG: 7 },
+  ascent: { verticalRiseTime: 10 },
+  constraints: { maxDynamicPressure: 45_000, maxAxialAccelerationG: 8 },
   objectives: [
     { metric: 'payloadMass', direction: 'max' },
     { metric: 'maxDynamicPressure', direction: 'min' }

@@ -78,9 +78,8 @@ export const LIMITS = Object.freeze({
   ispVacuum: { gt: 0, le: 1000 },
   ispSeaLevel: { ge: 0, le: 1000 },
   structuralCoefficient: { gt: 0, lt: 1 },
-  massRatio: { gt: 1, le: 100 },
-  thrustToWeight: { gt: 0, le: 20 },
-  altitude: { ge: 80_000, le: 500_000_000 },
+  thrustToWeight: { gt: 0, le: 10 },
+  altitude: { ge: 80_000, le: 400_000_000 },
   inclination: { ge: 0, le: 180 },
   latitude: { ge: -90, le: 90 },
   payloadMass: { gt: 0, le: 1e9 },
@@ -127,8 +126,6 @@ export const stageSchema = z
     structuralCoefficient: num('structural coefficient', '', LIMITS.structuralCoefficient).optional(),
     dryMass: num('dry mass', 'kg', LIMITS.stageMass).optional(),
     propellantMass: num('propellant mass', 'kg', LIMITS.stageMass).optional(),
-    /** Fixed stage mass ratio m_ignition/m_burnout (sizing only); omitted → optimised. */
-    massRatio: num('mass ratio', '', LIMITS.massRatio).optional(),
     thrustVacuum: num('vacuum thrust', 'N', LIMITS.thrust).optional(),
     thrustToWeight: num('thrust-to-weight ratio', '', LIMITS.thrustToWeight).optional()
   })
@@ -345,18 +342,23 @@ export const samplingSchema = z.discriminatedUnion(
 // ---------------------------------------------------------------------------------------------
 // Mode options, constraints, objectives
 
-/** Ascent-mode options (simulated ascent with targeting). All optional; physics defaults apply. */
+/**
+ * Ascent-mode options (simulated ascent, targeted by the physics core's shooting method). All
+ * optional; the physics defaults apply.
+ */
 export const ascentOptionsSchema = z.object({
-  /** Vertical rise before the pitch-over [s]. */
+  /** Vertical rise before the pitch-over [s]; default: until ≈ 50 m/s. */
   verticalRiseTime: num('vertical rise time', 's', { ge: 0, le: 120 }).optional(),
-  /** Initial guess of the pitch-over angle [deg]; targeting adjusts it. */
-  pitchKick: num('pitch kick', 'deg', { gt: 0, le: 45 }).optional(),
-  /** Integration time step [s]. */
-  timeStep: num('time step', 's', { gt: 0, le: 5 }).optional(),
-  /** Targeting: altitude miss accepted at insertion [m]. */
+  /** Integration step in the atmosphere [s] (physics default 1 s). */
+  timeStepAtmosphere: num('atmospheric time step', 's', { gt: 0, le: 10 }).optional(),
+  /** Integration step of the steered, near-vacuum phase [s] (physics default 8 s). */
+  timeStepVacuum: num('vacuum time step', 's', { gt: 0, le: 30 }).optional(),
+  /** Targeting: accepted altitude miss at insertion [m] (physics default 50 m). */
   altitudeTolerance: num('altitude tolerance', 'm', { gt: 0, le: 100_000 }).optional(),
-  /** Targeting: most shooting iterations. */
-  maxIterations: num('iteration limit', '', { ge: 1, le: 200, int: true }).optional()
+  /** Targeting: accepted speed miss at insertion [m/s] (physics default 0.5 m/s). */
+  speedTolerance: num('speed tolerance', 'm/s', { gt: 0, le: 1000 }).optional(),
+  /** Targeting: most simulated flights per case (physics default 60). */
+  maxSimulations: num('flight budget', '', { ge: 5, le: 1000, int: true }).optional()
 });
 
 /** Budget-mode loss allowances [m/s]; each omitted one comes from the physics correlation. */
@@ -397,6 +399,7 @@ export const OBJECTIVE_METRICS = Object.freeze({
   payloadFraction: { label: 'payload fraction', unit: '', direction: 'max' },
   dryMass: { label: 'dry mass', unit: 'kg', direction: 'min' },
   propellantMass: { label: 'propellant mass', unit: 'kg', direction: 'min' },
+  /** Budget mode: the physics correlation's estimate; ascent mode: simulated. */
   maxDynamicPressure: { label: 'max-Q', unit: 'Pa', direction: 'min' },
   maxAxialAcceleration: { label: 'max axial acceleration', unit: 'm/s²', direction: 'min' },
   totalLosses: { label: 'total losses', unit: 'm/s', direction: 'min' },
@@ -411,8 +414,6 @@ export const objectiveSchema = z.object({
 });
 export type Objective = z.output<typeof objectiveSchema>;
 
-/** Metrics only a simulated ascent produces. */
-const ASCENT_ONLY_METRICS: ReadonlySet<string> = new Set(['maxDynamicPressure']);
 
 // ---------------------------------------------------------------------------------------------
 // Parameter paths
@@ -422,7 +423,6 @@ export type ParameterQuantity =
   | 'ispVacuum'
   | 'ispSeaLevel'
   | 'structuralCoefficient'
-  | 'massRatio'
   | 'thrustToWeight'
   | 'propulsion'
   | 'liftoffThrustToWeight'
@@ -445,7 +445,6 @@ const STAGE_QUANTITIES = [
   'ispVacuum',
   'ispSeaLevel',
   'structuralCoefficient',
-  'massRatio',
   'thrustToWeight',
   'propulsion'
 ] as const;
@@ -481,7 +480,6 @@ export const PARAMETER_INFO: Readonly<
     unit: '',
     limits: LIMITS.structuralCoefficient
   },
-  massRatio: { label: 'mass ratio', unit: '', limits: LIMITS.massRatio },
   thrustToWeight: { label: 'thrust-to-weight ratio', unit: '', limits: LIMITS.thrustToWeight },
   propulsion: { label: 'propulsion', unit: '', limits: null },
   liftoffThrustToWeight: { label: 'lift-off T/W', unit: '', limits: LIMITS.thrustToWeight },
@@ -682,14 +680,8 @@ function checkParameters(spec: z.output<typeof baseSpecSchema>, ctx: Ctx): void 
     }
 
     const q = parsed.quantity;
-    if ((q === 'massRatio' || q === 'payloadMass') && spec.problem.kind !== 'size')
-      issue(
-        ctx,
-        at('path'),
-        q === 'payloadMass'
-          ? 'payload mass is the result when finding the payload of a given vehicle; sweep it only when sizing'
-          : 'a stage mass ratio can be swept only when sizing (a given vehicle fixes its masses)'
-      );
+    if (q === 'payloadMass' && spec.problem.kind !== 'size')
+      issue(ctx, at('path'), 'payload mass is the result when finding the payload of a given vehicle; sweep it only when sizing');
     if (q === 'targetAltitude' && spec.target.orbit.kind !== 'circular')
       issue(ctx, at('path'), 'the orbit altitude can be swept only for a circular orbit; sweep perigee or apogee altitude');
     if ((q === 'targetPerigeeAltitude' || q === 'targetApogeeAltitude') && spec.target.orbit.kind !== 'elliptical')
@@ -748,8 +740,6 @@ function buildSpecSchema(caseCap: number) {
         issue(ctx, at('thrustToWeight'), 'sizing needs a thrust-to-weight ratio per stage (the thrust follows from the sized mass)');
       if (!sizing && s.propellantMass === undefined)
         issue(ctx, at('propellantMass'), 'a given vehicle needs the propellant mass of every stage');
-      if (!sizing && s.massRatio !== undefined)
-        issue(ctx, at('massRatio'), 'a fixed mass ratio applies only when sizing');
       if (i === 0 && !(s.propulsion.ispSeaLevel > 0))
         issue(ctx, at('propulsion', 'ispSeaLevel'), 'the first stage must produce thrust at sea level (sea-level Isp above 0 s)');
     });
@@ -760,11 +750,7 @@ function buildSpecSchema(caseCap: number) {
     spec.objectives.forEach((o, k) => {
       if (metrics.has(o.metric)) issue(ctx, ['objectives', k, 'metric'], `objective "${o.metric}" is chosen twice`);
       metrics.add(o.metric);
-      if (spec.mode === 'budget' && ASCENT_ONLY_METRICS.has(o.metric))
-        issue(ctx, ['objectives', k, 'metric'], `${OBJECTIVE_METRICS[o.metric].label} is known only from a simulated ascent: use mode "ascent"`);
     });
-    if (spec.mode === 'budget' && spec.constraints.maxDynamicPressure !== undefined)
-      issue(ctx, ['constraints', 'maxDynamicPressure'], 'a max-Q limit needs a simulated ascent: use mode "ascent"');
 
     const n = estimateCaseCount(spec);
     if (n > caseCap) {
