@@ -139,8 +139,9 @@ stop_mariadb() {
   stop_one mariadb "$MY_PID" mariadbd mariadb-admin --no-defaults --socket="$MY_SOCK" -uroot shutdown
   rm -f "$MY_PID" "$MY_SOCK"
 }
-stop_redis() { # SHUTDOWN fsyncs the AOF even with NOSAVE
-  stop_one redis "$RD_PID" redis-server timeout 10 redis-cli -h 127.0.0.1 -p "$REDIS_PORT" shutdown nosave
+stop_redis() { # SIGTERM = a clean SHUTDOWN (AOF fsynced); aimed by pid, so a wrong REDIS_PORT can't stop another server
+  p=$(live_pid "$RD_PID" redis-server) || true
+  stop_one redis "$RD_PID" redis-server kill -TERM "${p:-0}"
   rm -f "$RD_PID"
 }
 
