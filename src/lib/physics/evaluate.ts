@@ -14,10 +14,26 @@
  * Two modes:
  * - 'sizing': stages given by Isp, structural coefficient ε and T/W at their ignition, plus a
  *   required payload → delta-v budget, optimal staging (Lagrange), gross lift-off mass and
- *   stage masses, feasibility.
+ *   stage masses, feasibility. A stage may instead be given a fixed mass ratio n (`massRatio[i]`
+ *   finite; NaN = optimise): see "Fixed mass ratios" below.
  * - 'vehicle': stages given by Isp, propellant and dry mass and thrust → the payload that closes
  *   the budget (the losses depend on the lift-off T/W, hence on the payload: one bracketed
  *   Newton iteration solves both together), feasibility.
+ *
+ * Fixed mass ratios (sizing mode). A stage with a given n is sized from it — its step payload
+ * ratio (1 − ε·n)/((1 − ε)·n) and its delta-v c·ln n are fixed — and the free stages share the
+ * rest of the requirement, Δv_free = Δv_required − Σ_fixed c_i·ln n_i, by the same
+ * Lagrange-multiplier optimum (π = Π over all stages of the step ratios is separable, so the
+ * optimum over the free stages with the fixed ones held is the optimum of the free stages alone
+ * for Δv_free). With every stage fixed the vehicle's delta-v Σ c_i·ln n_i is what it is: short
+ * of the requirement → `DELTA_V_UNREACHABLE` (explainBudgetCase states delivered vs required);
+ * at or above it → feasible, sized with those ratios, and the surplus is delivered margin
+ * (`deliveredDeltaV` − `totalDeltaV`), not propellant off-loaded — a fixed mass ratio means
+ * the stage flies full. When the fixed stages alone cover the requirement in a mixed case, the
+ * optimum leaves the free stages empty (n = 1), flagged `MASS_RATIO_INVALID` like any empty
+ * stage (the case needs fewer stages). A fixed n ≤ 1 is `MASS_RATIO_INVALID` (not a stage); n ≥
+ * 1/ε is `STAGE_MASS_RATIO_UNREACHABLE` (the stage's structure alone exceeds 1/n of its ignition
+ * mass, so no mass on top closes it). Vehicle mode ignores `massRatio` (the masses fix it).
  *
  * Guarantees: no NaN or ±Infinity in the result (a non-finite intermediate is replaced by 0 and
  * flags `NON_FINITE_RESULT`); an unreachable delta-v gives payload 0 and `DELTA_V_UNREACHABLE`;
@@ -45,6 +61,11 @@ export interface BudgetCaseInput {
   structuralCoefficient: Float64Array;
   /** Sizing mode: thrust / (stack mass at ignition · G0) per stage; entry 0 is lift-off T/W. */
   thrustToWeight: Float64Array;
+  /**
+   * Sizing mode: fixed stage mass ratio n = m_ignition/m_burnout per stage, or NaN to optimise
+   * that stage (the default). Optional so inputs built by hand before it existed still work.
+   */
+  massRatio?: Float64Array;
   /** Vehicle mode: propellant mass per stage [kg]. */
   propellantMass: Float64Array;
   /** Vehicle mode: dry mass per stage [kg]. */
@@ -99,6 +120,12 @@ export interface BudgetCaseResult {
   reserve: number;
   /** Ideal delta-v the vehicle must supply [m/s]. */
   totalDeltaV: number;
+  /**
+   * Ideal delta-v of the stages as evaluated, Σ stageDeltaV [m/s]: equal to totalDeltaV (to
+   * rounding) when the vehicle closes, more when fixed mass ratios over-deliver, what the fixed
+   * ratios give when they fall short, 0 when an optimised staging cannot close.
+   */
+  deliveredDeltaV: number;
   /** 1 when the loss came from the correlation, 0 when given by the user (bit 0 gravity, 1 drag, 2 steering, 3 max-Q). */
   correlationMask: number;
   /** Inertial launch azimuth [deg], inclination flown [deg], plane change left [deg]. */
@@ -143,6 +170,7 @@ export function createBudgetCaseInput(): BudgetCaseInput {
     isp: new Float64Array(MAX_STAGES),
     structuralCoefficient: new Float64Array(MAX_STAGES),
     thrustToWeight: new Float64Array(MAX_STAGES),
+    massRatio: new Float64Array(MAX_STAGES).fill(NaN),
     propellantMass: new Float64Array(MAX_STAGES),
     dryMass: new Float64Array(MAX_STAGES),
     thrust: new Float64Array(MAX_STAGES),
@@ -185,6 +213,7 @@ export function createBudgetCaseResult(): BudgetCaseResult {
     planeChangeDeltaV: 0,
     reserve: 0,
     totalDeltaV: 0,
+    deliveredDeltaV: 0,
     correlationMask: 0,
     azimuth: 0,
     launchInclination: 0,
@@ -253,6 +282,66 @@ function required(x: number): number {
   return (REQ.fixed + g + d) * (1 + REQ.rf) + REQ.rv;
 }
 
+// Outcome of fixedRatioStaging besides its return value (module scratch, like C and LNN).
+const FIXED = { fail: 0, deliveredFixed: 0 };
+const CF = new Float64Array(MAX_STAGES);
+const EF = new Float64Array(MAX_STAGES);
+const NF = new Float64Array(MAX_STAGES);
+const LF = new Float64Array(MAX_STAGES);
+
+/**
+ * Staging with some stage mass ratios fixed (finite `fixed[i]`) and the rest optimised for the
+ * remaining delta-v (see the file header). Writes n_i into `massRatios` and ln n_i into LNN;
+ * sets FIXED.fail (MASS_RATIO_INVALID for a fixed n ≤ 1, STAGE_MASS_RATIO_UNREACHABLE for
+ * n·ε ≥ 1). Returns π = Π (1 − ε_i n_i)/((1 − ε_i) n_i), or −1 when the delta-v is not reached
+ * or a fixed ratio is unbuildable. Inputs validated by the caller (c = C, 0 < ε < 1).
+ */
+function fixedRatioStaging(
+  k: number,
+  eps: Float64Array,
+  fixed: Float64Array,
+  deltaV: number,
+  massRatios: Float64Array
+): number {
+  let fail = 0;
+  let piFixed = 1;
+  let dvFixed = 0;
+  let free = 0;
+  for (let i = 0; i < k; i++) {
+    const n = fixed[i];
+    if (n !== n) {
+      CF[free] = C[i];
+      EF[free] = eps[i];
+      free++;
+      continue;
+    }
+    const e = eps[i];
+    if (!(n > 1)) fail |= REASON_BIT.MASS_RATIO_INVALID;
+    else if (!(n * e < 1)) fail |= REASON_BIT.STAGE_MASS_RATIO_UNREACHABLE;
+    massRatios[i] = n;
+    // Rocket equation of the fixed stage, c_i·ln n_i, and its step payload ratio.
+    const l = n > 0 ? Math.log(n) : 0;
+    LNN[i] = l;
+    dvFixed += C[i] * l;
+    piFixed *= (1 - e * n) / ((1 - e) * n);
+  }
+  FIXED.fail = fail;
+  FIXED.deliveredFixed = dvFixed;
+  if (fail !== 0) return -1;
+  if (free === 0) return dvFixed >= deltaV ? piFixed : -1;
+  // The free stages supply what the fixed ones leave (none left: they stay empty, n = 1).
+  const rest = deltaV - dvFixed;
+  const piFree = optimalStagingKernel(free, CF, EF, rest > 0 ? rest : 0, NF, LF);
+  if (piFree < 0) return -1;
+  for (let i = 0, j = 0; i < k; i++) {
+    if (fixed[i] === fixed[i]) continue;
+    massRatios[i] = NF[j];
+    LNN[i] = LF[j];
+    j++;
+  }
+  return piFixed * piFree;
+}
+
 function range(name: string, v: number, min: number, max: number): void {
   if (!(v >= min && v <= max)) throw new RangeError(`${name} must be a finite number in [${min}, ${max}], got ${v}`);
 }
@@ -306,7 +395,7 @@ function clearStages(out: BudgetCaseResult, count: number): void {
  * Evaluate one budget-mode case: delta-v budget, sizing (or payload), feasibility.
  *
  * Formulas: budget total = v_ins + Δv_g + Δv_d + Δv_s − ω·R·cos φ·sin β + Δv_transfer +
- * Δv_plane + reserve (see budget.ts; losses from the correlation a + b/ψ + c·h, d0 + d1·ψ, s when
+ * Δv_plane + reserve (see budget.ts; losses from the correlation a + b/ψ + c·h, d0 + d1·ψ, s + sh·h when
  * not given); sizing by the Lagrange-multiplier optimum (rocket.ts) with m0 = m_L/π; vehicle mode
  * solves Σ c_i·ln(m0_i/(m0_i − mp_i)) = total(ψ(m_L)) for m_L, ψ = T_0/((M + m_L)·G0); max axial
  * acceleration = max_i T_i/(m0_i − mp_i) (vacuum thrust at burn-out, drag neglected).
@@ -320,7 +409,7 @@ function clearStages(out: BudgetCaseResult, count: number): void {
  * const input = createBudgetCaseInput();
  * input.isp.set([300, 345]); input.structuralCoefficient.set([0.07, 0.09]);
  * input.thrustToWeight.set([1.3, 0.9]); input.payloadMass = 5000;
- * evaluateBudgetCase(input).grossMass; // ≈ 1.916e5 kg (direct to 200 km, 28.5°)
+ * evaluateBudgetCase(input).grossMass; // ≈ 1.776e5 kg (direct to 200 km, 28.5°)
  */
 export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult = createBudgetCaseResult()): BudgetCaseResult {
   const k = input.stageCount;
@@ -400,11 +489,32 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
       fail |= REASON_BIT.STRUCTURAL_COEFFICIENT_INVALID;
       payload = 0;
     } else {
-      const pi = optimalStagingKernel(k, C, input.structuralCoefficient, total > 0 ? total : 0, out.massRatio, LNN);
-      if (pi <= 0) {
-        fail |= REASON_BIT.DELTA_V_UNREACHABLE;
+      const fixedN = input.massRatio;
+      let nFixed = 0;
+      if (fixedN !== undefined) {
+        for (let i = 0; i < k; i++) {
+          const n = fixedN[i];
+          if (n !== n) continue;
+          if (n - n !== 0) throw new RangeError(`massRatio[${i}] must be a finite number (or NaN to optimise the stage), got ${n}`);
+          nFixed++;
+        }
+      }
+      const pi =
+        nFixed === 0
+          ? optimalStagingKernel(k, C, input.structuralCoefficient, total > 0 ? total : 0, out.massRatio, LNN)
+          : fixedRatioStaging(k, input.structuralCoefficient, fixedN!, total > 0 ? total : 0, out.massRatio);
+      if (nFixed > 0) fail |= FIXED.fail;
+      if (!(pi > 0)) {
+        if (nFixed === 0 || !(FIXED.fail & (REASON_BIT.MASS_RATIO_INVALID | REASON_BIT.STAGE_MASS_RATIO_UNREACHABLE)))
+          fail |= REASON_BIT.DELTA_V_UNREACHABLE;
+        payload = 0;
         out.payloadFraction = 0;
-        for (let i = 0; i < k; i++) out.massRatio[i] = 0;
+        for (let i = 0; i < k; i++) {
+          // A fixed ratio is an input: keep it and its delta-v on show; optimised ones have none.
+          const n = nFixed > 0 ? fixedN![i] : NaN;
+          out.massRatio[i] = n === n ? n : 0;
+          out.stageDeltaV[i] = n === n && n > 0 ? C[i] * Math.log(n) : 0;
+        }
       } else {
         gross = payload / pi;
         out.payloadFraction = pi;
@@ -529,6 +639,9 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
   const beforeReserve = orbital + gl + dl + steer;
   out.reserve = total - beforeReserve;
   out.totalDeltaV = total;
+  let delivered = 0;
+  for (let i = 0; i < k; i++) delivered += out.stageDeltaV[i];
+  out.deliveredDeltaV = delivered;
   out.correlationMask = corrMask;
   out.azimuth = ORBIT.azimuth;
   out.launchInclination = ORBIT.launchInclination;
@@ -580,6 +693,7 @@ const SCALAR_KEYS = [
   'planeChangeDeltaV',
   'reserve',
   'totalDeltaV',
+  'deliveredDeltaV',
   'azimuth',
   'launchInclination',
   'planeChangeAngle',
@@ -608,7 +722,8 @@ function allFinite(out: BudgetCaseResult): boolean {
     out.insertionSpeed - out.insertionSpeed + (out.gravityLoss - out.gravityLoss) + (out.dragLoss - out.dragLoss) +
     (out.steeringLoss - out.steeringLoss) + (out.rotationAssist - out.rotationAssist) +
     (out.transferDeltaV - out.transferDeltaV) + (out.planeChangeDeltaV - out.planeChangeDeltaV) +
-    (out.reserve - out.reserve) + (out.totalDeltaV - out.totalDeltaV) + (out.azimuth - out.azimuth) +
+    (out.reserve - out.reserve) + (out.totalDeltaV - out.totalDeltaV) +
+    (out.deliveredDeltaV - out.deliveredDeltaV) + (out.azimuth - out.azimuth) +
     (out.launchInclination - out.launchInclination) + (out.planeChangeAngle - out.planeChangeAngle) +
     (out.payloadMass - out.payloadMass) + (out.grossMass - out.grossMass) +
     (out.payloadFraction - out.payloadFraction) + (out.liftoffThrustToWeight - out.liftoffThrustToWeight) +
@@ -687,6 +802,7 @@ export function budgetCaseToRecord(r: BudgetCaseResult): BudgetCaseRecord {
     planeChangeDeltaV: r.planeChangeDeltaV,
     reserve: r.reserve,
     totalDeltaV: r.totalDeltaV,
+    deliveredDeltaV: r.deliveredDeltaV,
     correlationMask: r.correlationMask,
     azimuth: r.azimuth,
     launchInclination: r.launchInclination,
@@ -730,7 +846,8 @@ export function explainBudgetCase(input: BudgetCaseInput, r: BudgetCaseResult): 
       payloadMass: r.payloadMass,
       grossMass: r.failMask & REASON_BIT.DELTA_V_UNREACHABLE ? undefined : r.grossMass,
       structuralCoefficients: Array.from(r.structuralCoefficient.subarray(0, k)),
-      massRatios: r.failMask & (REASON_BIT.DELTA_V_UNREACHABLE | REASON_BIT.STRUCTURAL_COEFFICIENT_INVALID) ? undefined : Array.from(r.massRatio.subarray(0, k))
+      // Not when nothing was sized (a fixed-ratio failure is explained below, stage by stage).
+      massRatios: r.failMask & (REASON_BIT.DELTA_V_UNREACHABLE | REASON_BIT.STRUCTURAL_COEFFICIENT_INVALID) || (input.mode === 'sizing' && !(r.payloadFraction > 0)) ? undefined : Array.from(r.massRatio.subarray(0, k))
     },
     input.limits ?? DEFAULT_FEASIBILITY_LIMITS
   );
@@ -739,9 +856,17 @@ export function explainBudgetCase(input: BudgetCaseInput, r: BudgetCaseResult): 
       'DELTA_V_UNREACHABLE',
       () => {
         let limit = 0;
+        let allFixed = input.mode === 'sizing' && input.massRatio !== undefined;
         if (input.mode === 'sizing') {
-          // Zero-payload limit Σ c_i ln(1/ε_i).
-          for (let i = 0; i < k; i++) limit -= input.isp[i] * G0 * Math.log(input.structuralCoefficient[i]);
+          // Zero-payload limit Σ c_i ln(1/ε_i), with c_i ln n_i for a stage of fixed ratio n_i.
+          for (let i = 0; i < k; i++) {
+            const n = input.massRatio?.[i] ?? NaN;
+            if (n === n) limit += input.isp[i] * G0 * Math.log(n);
+            else {
+              allFixed = false;
+              limit -= input.isp[i] * G0 * Math.log(input.structuralCoefficient[i]);
+            }
+          }
         } else {
           limit = vehicleDeltaVKernel(k, Array.from(input.isp.subarray(0, k), (v) => v * G0), input.propellantMass, input.dryMass, 0);
         }
@@ -750,7 +875,48 @@ export function explainBudgetCase(input: BudgetCaseInput, r: BudgetCaseResult): 
           limit,
           value: r.totalDeltaV,
           margin: limit - r.totalDeltaV,
-          message: `required ${r.totalDeltaV.toFixed(1)} m/s exceeds the zero-payload limit ${limit.toFixed(1)} m/s`
+          message: allFixed
+            ? `the fixed mass ratios deliver ${limit.toFixed(1)} m/s, short of the required ${r.totalDeltaV.toFixed(1)} m/s`
+            : `required ${r.totalDeltaV.toFixed(1)} m/s exceeds the zero-payload limit ${limit.toFixed(1)} m/s`
+        };
+      }
+    ],
+    [
+      'MASS_RATIO_INVALID',
+      () => {
+        let stage = 0;
+        for (let i = 0; i < k; i++) {
+          const n = input.massRatio?.[i] ?? NaN;
+          if (n === n && !(n > 1)) {
+            stage = i;
+            break;
+          }
+        }
+        const n = input.massRatio?.[stage] ?? 0;
+        return { code: 'MASS_RATIO_INVALID', limit: 1, value: n, margin: n - 1, stage, message: `stage ${stage + 1} fixed mass ratio ${n} must exceed 1` };
+      }
+    ],
+    [
+      'STAGE_MASS_RATIO_UNREACHABLE',
+      () => {
+        // The first stage whose fixed ratio n reaches 1/ε: its structure alone is ≥ m0/n.
+        let stage = 0;
+        for (let i = 0; i < k; i++) {
+          const n = input.massRatio?.[i] ?? NaN;
+          if (n === n && !(n * input.structuralCoefficient[i] < 1)) {
+            stage = i;
+            break;
+          }
+        }
+        const n = input.massRatio?.[stage] ?? 0;
+        const limit = 1 / input.structuralCoefficient[stage];
+        return {
+          code: 'STAGE_MASS_RATIO_UNREACHABLE',
+          limit,
+          value: n,
+          margin: limit - n,
+          stage,
+          message: `stage ${stage + 1} fixed mass ratio ${n} is at or above 1/ε = ${limit.toFixed(3)}: no stage of that structure reaches it`
         };
       }
     ],

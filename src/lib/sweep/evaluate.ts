@@ -269,6 +269,8 @@ const ASSUMPTIONS_BUDGET = [
   'Lift-off T/W uses sea-level thrust; upper-stage T/W uses vacuum thrust over the weight at ignition.',
   'Max axial acceleration: thrust over burn-out mass per stage, drag neglected.'
 ];
+const ASSUMPTION_FIXED_RATIO =
+  'Stages with a fixed mass ratio are sized from it and fly full; the other stages share the rest of the delta-v by the staging optimum. With every ratio fixed, a shortfall is infeasible and a surplus is margin.';
 const ASSUMPTIONS_ASCENT = [
   'Ascent mode: planar point-mass ascent over a non-rotating spherical Earth, targeted by a shooting method; losses simulated.',
   'Target speed at the perigee minus the Earth-rotation assist, plus plane change and reserve as extra delta-v of the last stage.',
@@ -282,6 +284,8 @@ interface Work {
   ispVac: Float64Array;
   /** ε, or NaN when the stage is given by masses. */
   eps: Float64Array;
+  /** Fixed stage mass ratio, or NaN when the staging optimum chooses it (sizing only). */
+  massRatio: Float64Array;
   dry: Float64Array;
   prop: Float64Array;
   /** Vacuum thrust [N], or NaN when given by T/W. */
@@ -304,6 +308,7 @@ function makeWork(spec: SweepSpec): Work {
     ispSl: new Float64Array(k),
     ispVac: new Float64Array(k),
     eps: new Float64Array(k),
+    massRatio: new Float64Array(k),
     dry: new Float64Array(k),
     prop: new Float64Array(k),
     thrust: new Float64Array(k),
@@ -319,6 +324,7 @@ function makeWork(spec: SweepSpec): Work {
     w.ispSl[i] = s.propulsion.ispSeaLevel;
     w.ispVac[i] = s.propulsion.ispVacuum;
     w.eps[i] = s.structuralCoefficient ?? NaN;
+    w.massRatio[i] = s.massRatio ?? NaN;
     w.dry[i] = s.dryMass ?? NaN;
     w.prop[i] = s.propellantMass ?? NaN;
     w.thrust[i] = s.thrustVacuum ?? NaN;
@@ -336,6 +342,7 @@ function copyWork(from: Work, to: Work): void {
     to.ispSl[i] = from.ispSl[i];
     to.ispVac[i] = from.ispVac[i];
     to.eps[i] = from.eps[i];
+    to.massRatio[i] = from.massRatio[i];
     to.dry[i] = from.dry[i];
     to.prop[i] = from.prop[i];
     to.thrust[i] = from.thrust[i];
@@ -369,6 +376,8 @@ function makeApplier(spec: SweepSpec, plan: CasePlan): Applier {
           w.eps[s] = v[k];
           w.dry[s] = NaN;
         };
+      case 'massRatio':
+        return (w, v) => void (w.massRatio[s] = v[k]);
       case 'thrustToWeight':
       case 'liftoffThrustToWeight':
       case 'upperStageThrustToWeight': {
@@ -690,6 +699,7 @@ function makeBudgetRunner(spec: SweepSpec, limits: FeasibilityLimits): BudgetRun
       for (let i = 0; i < k; i++) {
         input.structuralCoefficient[i] = w.eps[i] === w.eps[i] ? w.eps[i] : w.dry[i] / (w.dry[i] + w.prop[i]);
         input.thrustToWeight[i] = w.tw[i];
+        input.massRatio![i] = w.massRatio[i];
       }
       input.payloadMass = w.payload;
       evaluateBudgetCase(input, output);
@@ -760,6 +770,8 @@ function budgetDetail(spec: SweepSpec, w: Work, input: BudgetCaseInput, o: Budge
   const origin = (bit: number): DetailTerm['origin'] => (corr & bit ? 'correlation' : 'allowance');
   const corrNote = `physics loss correlation at lift-off T/W ${o.liftoffThrustToWeight.toFixed(3)} (${DEFAULT_LOSS_CORRELATION.source})`;
   const k = o.stageCount;
+  let fixedRatios = false;
+  for (let i = 0; i < k; i++) if (w.massRatio[i] === w.massRatio[i]) fixedRatios = true;
   return {
     modelVersion: SWEEP_MODEL_VERSION,
     mode: 'budget',
@@ -807,8 +819,13 @@ function budgetDetail(spec: SweepSpec, w: Work, input: BudgetCaseInput, o: Budge
       ...report.failures.map((f) => ({ ...f, passed: false })),
       ...report.passed.map((f) => ({ ...f, passed: true }))
     ].map(({ code, limit, value, margin, passed, message }) => ({ code, limit, value, margin, passed, message })),
-    messages: report.warnings.map((x) => x.message),
-    assumptions: ASSUMPTIONS_BUDGET,
+    messages: [
+      ...report.warnings.map((x) => x.message),
+      ...(fixedRatios && o.payloadFraction > 0 && o.deliveredDeltaV > o.totalDeltaV + 1e-6
+        ? [`the fixed mass ratios deliver ${o.deliveredDeltaV.toFixed(1)} m/s, ${(o.deliveredDeltaV - o.totalDeltaV).toFixed(1)} m/s above the requirement (kept as margin)`]
+        : [])
+    ],
+    assumptions: fixedRatios ? [...ASSUMPTIONS_BUDGET, ASSUMPTION_FIXED_RATIO] : ASSUMPTIONS_BUDGET,
     ascent: null
   };
 }

@@ -44,7 +44,8 @@ interface Bounds {
 }
 
 function withUnit(value: number, unit: string): string {
-  return unit ? `${value} ${unit}` : `${value}`;
+  // '–' marks a dimensionless quantity in PARAMETER_INFO; nothing to print after the number.
+  return unit && unit !== '–' ? `${value} ${unit}` : `${value}`;
 }
 
 /** A finite number field named `label` (unit shown in messages), with optional limits. */
@@ -78,6 +79,8 @@ export const LIMITS = Object.freeze({
   ispVacuum: { gt: 0, le: 1000 },
   ispSeaLevel: { ge: 0, le: 1000 },
   structuralCoefficient: { gt: 0, lt: 1 },
+  /** Stage mass ratio m_ignition/m_burnout: above 1 (the stage burns propellant); 100 is far beyond any stage. */
+  massRatio: { gt: 1, le: 100 },
   thrustToWeight: { gt: 0, le: 10 },
   altitude: { ge: 80_000, le: 400_000_000 },
   inclination: { ge: 0, le: 180 },
@@ -124,6 +127,11 @@ export const stageSchema = z
     name: text('stage name', 60).optional(),
     propulsion: propulsionSchema,
     structuralCoefficient: num('structural coefficient', '', LIMITS.structuralCoefficient).optional(),
+    /**
+     * Fixed stage mass ratio n = m_ignition/m_burnout (sizing in budget mode only); omitted,
+     * the staging optimum chooses it.
+     */
+    massRatio: num('mass ratio', '', LIMITS.massRatio).optional(),
     dryMass: num('dry mass', 'kg', LIMITS.stageMass).optional(),
     propellantMass: num('propellant mass', 'kg', LIMITS.stageMass).optional(),
     thrustVacuum: num('vacuum thrust', 'N', LIMITS.thrust).optional(),
@@ -423,6 +431,7 @@ export type ParameterQuantity =
   | 'ispVacuum'
   | 'ispSeaLevel'
   | 'structuralCoefficient'
+  | 'massRatio'
   | 'thrustToWeight'
   | 'propulsion'
   | 'liftoffThrustToWeight'
@@ -445,6 +454,7 @@ const STAGE_QUANTITIES = [
   'ispVacuum',
   'ispSeaLevel',
   'structuralCoefficient',
+  'massRatio',
   'thrustToWeight',
   'propulsion'
 ] as const;
@@ -480,6 +490,7 @@ export const PARAMETER_INFO: Readonly<
     unit: '',
     limits: LIMITS.structuralCoefficient
   },
+  massRatio: { label: 'stage mass ratio', unit: '–', limits: LIMITS.massRatio },
   thrustToWeight: { label: 'thrust-to-weight ratio', unit: '', limits: LIMITS.thrustToWeight },
   propulsion: { label: 'propulsion', unit: '', limits: null },
   liftoffThrustToWeight: { label: 'lift-off T/W', unit: '', limits: LIMITS.thrustToWeight },
@@ -680,6 +691,10 @@ function checkParameters(spec: z.output<typeof baseSpecSchema>, ctx: Ctx): void 
     }
 
     const q = parsed.quantity;
+    if (q === 'massRatio' && spec.problem.kind !== 'size')
+      issue(ctx, at('path'), 'a given vehicle\'s mass ratios follow from its masses; sweep the mass ratio only when sizing');
+    else if (q === 'massRatio' && spec.mode !== 'budget')
+      issue(ctx, at('path'), 'a fixed stage mass ratio is a budget-mode sizing input; ascent-mode sizing optimises the staging');
     if (q === 'payloadMass' && spec.problem.kind !== 'size')
       issue(ctx, at('path'), 'payload mass is the result when finding the payload of a given vehicle; sweep it only when sizing');
     if (q === 'targetAltitude' && spec.target.orbit.kind !== 'circular')
@@ -738,6 +753,10 @@ function buildSpecSchema(caseCap: number) {
       const at = (...rest: (string | number)[]) => ['baseline', 'stages', i, ...rest];
       if (sizing && s.thrustToWeight === undefined)
         issue(ctx, at('thrustToWeight'), 'sizing needs a thrust-to-weight ratio per stage (the thrust follows from the sized mass)');
+      if (s.massRatio !== undefined && !sizing)
+        issue(ctx, at('massRatio'), 'a given vehicle\'s mass ratio follows from its masses; fix a mass ratio only when sizing');
+      else if (s.massRatio !== undefined && spec.mode !== 'budget')
+        issue(ctx, at('massRatio'), 'a fixed stage mass ratio is a budget-mode sizing input; ascent-mode sizing optimises the staging');
       if (!sizing && s.propellantMass === undefined)
         issue(ctx, at('propellantMass'), 'a given vehicle needs the propellant mass of every stage');
       if (i === 0 && !(s.propulsion.ispSeaLevel > 0))

@@ -274,3 +274,43 @@ describe('summary', () => {
     expect(pearson([1, 1, 1], [1, 2, 3])).toBeNull();
   });
 });
+
+describe('stage mass ratio as a swept parameter', () => {
+  test('the upper stage delivers c·ln n (Tsiolkovsky) and the optimised first stage the rest', () => {
+    const input = structuredClone(EXAMPLE_SIZING_INPUT);
+    input.sweep = { parameters: [{ path: 'stages.1.massRatio', values: { kind: 'list', values: [2.5, 3, 3.5, 4] } }], sampling: { plan: 'grid' } };
+    const spec = assertSweepSpec(input);
+    const ev = makeEvaluator(spec, { detail: true });
+    const c2 = 340 * G0; // upper stage vacuum Isp of the example
+    const stageDv: number[] = [];
+    for (let i = 0; i < ev.total; i++) {
+      const r = ev.evaluate(i);
+      expectClean(r);
+      const n = [2.5, 3, 3.5, 4][i];
+      const d = r.detail!;
+      expect(d.stages[1].massRatio).toBe(n);
+      // Rocket equation for the fixed stage (tolerance: rounding of one logarithm).
+      expect(Math.abs(d.stages[1].deltaV - c2 * Math.log(n))).toBeLessThan(1e-9);
+      // The two stages together supply the required delta-v.
+      expect(Math.abs(d.stages[0].deltaV + d.stages[1].deltaV - r.requiredDeltaV)).toBeLessThan(1e-6);
+      expect(d.assumptions.some((a) => /fixed mass ratio/.test(a))).toBe(true);
+      stageDv.push(d.stages[1].deltaV);
+    }
+    // Steps in delta-v follow ln(n_b/n_a) exactly as Tsiolkovsky says.
+    expect(Math.abs(stageDv[3] - stageDv[0] - c2 * Math.log(4 / 2.5))).toBeLessThan(1e-9);
+    // Same results in bulk evaluation (no detail).
+    const bulk = makeEvaluator(spec);
+    for (let i = 0; i < ev.total; i++) expect(bulk.evaluate(i).glow).toBe(ev.evaluate(i).glow);
+  });
+
+  test('a ratio no stage of its structure reaches is an infeasible case with a reason', () => {
+    const input = structuredClone(EXAMPLE_SIZING_INPUT);
+    // ε = 0.1 for the upper stage: n must stay below 10.
+    input.sweep = { parameters: [{ path: 'stages.1.massRatio', values: { kind: 'list', values: [3, 12] } }], sampling: { plan: 'grid' } };
+    const ev = makeEvaluator(assertSweepSpec(input));
+    const bad = ev.evaluate(1);
+    expectClean(bad);
+    expect(bad.reasons).toContain('STAGE_MASS_RATIO_UNREACHABLE');
+    expect(bad.glow).toBe(0);
+  });
+});

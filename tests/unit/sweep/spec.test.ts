@@ -177,6 +177,39 @@ describe('levels and paths', () => {
     expect(parseParameterPath('stages.0.propulsion')).toEqual({ quantity: 'propulsion', stage: 0, categorical: true });
     expect(parseParameterPath('target.inclination')?.quantity).toBe('inclination');
     expect(parseParameterPath('toString')).toBeNull();
-    expect(parseParameterPath('stages.1.massRatio')).toBeNull();
+    expect(parseParameterPath('stages.1.massRatio')).toEqual({ quantity: 'massRatio', stage: 1, categorical: false });
+    expect(parseParameterPath('stages.1.massratio')).toBeNull();
+  });
+});
+
+describe('stage mass ratio', () => {
+  const withMassRatio = (values: Loose): Loose => {
+    const s = clone(EXAMPLE_SIZING_INPUT);
+    s.sweep.parameters = [{ path: 'stages.1.massRatio', values }];
+    return s;
+  };
+
+  test('a swept mass ratio above 1 is accepted when sizing in budget mode', () => {
+    expect(parseSweepSpec(withMassRatio({ kind: 'count', min: 2, max: 6, count: 5 })).ok).toBe(true);
+    const s = clone(EXAMPLE_SIZING_INPUT);
+    s.baseline.stages[1].massRatio = 3.5;
+    expect(parseSweepSpec(s).ok).toBe(true);
+  });
+
+  test('a ratio of 1 or less is a field error naming the value', () => {
+    expect(errorsOf(withMassRatio({ kind: 'list', values: [2, 1] }))['sweep.parameters.0.values.values.1']).toBe('stage mass ratio must be greater than 1');
+    expect(errorsOf(withMassRatio({ kind: 'count', min: 0.5, max: 3, count: 4 }))['sweep.parameters.0.values.min']).toBe('stage mass ratio must be greater than 1');
+    const s = clone(EXAMPLE_SIZING_INPUT);
+    s.baseline.stages[0].massRatio = 1;
+    expect(errorsOf(s)['baseline.stages.0.massRatio']).toBe('mass ratio must be greater than 1');
+  });
+
+  test('refused for a given vehicle and in ascent mode', () => {
+    const p = clone(EXAMPLE_PAYLOAD_INPUT);
+    p.sweep.parameters = [{ path: 'stages.0.massRatio', values: { kind: 'uniform', min: 2, max: 4 } }];
+    expect(errorsOf(p)['sweep.parameters.0.path']).toMatch(/only when sizing/);
+    const a = withMassRatio({ kind: 'list', values: [3, 4] });
+    a.mode = 'ascent';
+    expect(errorsOf(a)['sweep.parameters.0.path']).toMatch(/budget-mode/);
   });
 });
