@@ -5,12 +5,12 @@
  */
 import { UnrecoverableError, type Job } from 'bullmq';
 import { config } from '../../src/lib/server/config';
-import { User } from '../../src/lib/server/db/models';
+import { User, Workspace } from '../../src/lib/server/db/models';
 import { sendMail } from '../../src/lib/server/mail';
 import type { JobPayloads } from '../../src/lib/server/queue';
 import { failedChunk, type ChunkResult } from '../../src/lib/server/sweeps/chunk-result';
 import { evaluateChunkInThread, rankInThread, ThreadTaskError } from '../../src/lib/server/sweeps/compute';
-import { buildSummary, objectiveColumns, readFeasiblePoints, writeRanks } from '../../src/lib/server/sweeps/finalize';
+import { completeSweep } from '../../src/lib/server/sweeps/finalize';
 import { withConnection } from '../../src/lib/server/sweeps/pool';
 import { enqueueFinalize } from '../../src/lib/server/sweeps/runner';
 import { commitChunk, loadSweepRow, markSweepFailed, type CommitOutcome } from '../../src/lib/server/sweeps/store';
@@ -97,6 +97,7 @@ async function notifyOwner(sweepId: number) {
   if (Number(claim.affectedRows) !== 1) return false;
   const owner = await User.findByPk(s.ownerId);
   if (!owner) return false;
+  const ws = await Workspace.findByPk(s.workspaceId);
   try {
     await sendMail({
       to: owner.email,
@@ -106,7 +107,7 @@ async function notifyOwner(sweepId: number) {
         '',
         `Your sweep "${s.name}" has completed: ${s.totalCases.toLocaleString('en-US')} cases, ` +
           `${s.feasibleCases.toLocaleString('en-US')} feasible, ${s.failedCases.toLocaleString('en-US')} failed.`,
-        `Results: ${config.ORIGIN}/sweeps/${sweepId}`,
+        `Results: ${config.ORIGIN}/w/${ws?.slug ?? ''}/sweeps/${sweepId}`,
         '',
         'Conceptual estimates only: flight, range-safety and licensing decisions belong to qualified engineers and the applicable authorities.'
       ].join('\n')
@@ -127,27 +128,9 @@ export async function sweepFinalize(job: Job<JobPayloads['sweepFinalize']>) {
   if (s.status !== 'running' || !s.finalizeClaimed) return { skipped: s.status };
   try {
     const spec = await validSpec(sweepId, s.spec);
-    const cols = objectiveColumns(spec);
-    const t0 = performance.now();
-    const points = await readFeasiblePoints(sweepId, cols.map((c) => c.column), s.feasibleCases);
-    const t1 = performance.now();
-    const ranks = points.indexes.length
-      ? await rankInThread(points.objectives, cols.map((c) => c.direction))
-      : new Int32Array(0);
-    const t2 = performance.now();
-    await writeRanks(sweepId, points.indexes, ranks);
-    const t3 = performance.now();
-    const summary = await buildSummary(sweepId, spec, { total: s.totalCases, failed: s.failedCases });
-    const timings = { readMs: Math.round(t1 - t0), rankMs: Math.round(t2 - t1), writeRanksMs: Math.round(t3 - t2), summaryMs: Math.round(performance.now() - t3) };
-    await withConnection((conn) =>
-      conn.query(
-        `UPDATE sweeps SET status = 'completed', summary = ?, finished_at = UTC_TIMESTAMP(), updated_at = UTC_TIMESTAMP()
-         WHERE id = ? AND status = 'running'`,
-        [JSON.stringify({ ...summary, timings }), sweepId]
-      )
-    );
+    const timings = await completeSweep(s, spec, rankInThread);
     const notified = await notifyOwner(sweepId);
-    return { ranked: points.indexes.length, ...timings, notified };
+    return { ...timings, notified };
   } catch (e) {
     if (e instanceof UnrecoverableError) throw e;
     if (job.attemptsMade + 1 >= (job.opts.attempts ?? 1))

@@ -146,7 +146,7 @@ describe('one worker', () => {
   it('pauses (no more chunks land) and resumes to completion with nothing lost or doubled', async () => {
     const study = await newStudy('small-launcher');
     const created = await createSweep(engineer, { studyId: study.id, spec: sizingSpec(24_000, 'pause and resume') });
-    await waitFor('a first chunk', async () => (await sweepRow(created.id)).chunksDone >= 1, 30_000, 25);
+    await waitFor('a chunk with feasible cases', async () => (await sweepRow(created.id)).feasibleCases >= 1, 30_000, 25);
     const paused = await pauseSweep(engineer, created.id);
     expect(paused.status).toBe('paused');
     // An in-flight chunk is refused at commit: the counters freeze.

@@ -6,6 +6,7 @@
 import { hashPassword } from '../password';
 import { Membership, User, Workspace, type Role } from './models';
 import { seedCatalogue } from './seed-catalogue';
+import { seedDemoSweeps } from '../sweeps/seed-demo';
 
 export const DEMO_PASSWORD = 'loftwise-demo';
 
@@ -55,6 +56,7 @@ export async function seedDemo() {
   await grant('engineer@tarnwick.example', 'heavy-concepts', 'engineer');
 
   await seedCatalogue(workspaces);
+  await seedDemoSweeps(users, workspaces);
 
   return { users, workspaces };
 }

@@ -47,7 +47,7 @@ export async function caseDetail(sweep: Sweep, index: number) {
     /** The case re-evaluated now: params, budget terms, stage masses, reasons. */
     evaluation,
     evaluationError,
-    /** Ascent mode: the trajectory, recomputed on demand (needs the sweep evaluator of src/lib/sweep). */
+    /** Ascent mode: the trajectory, recomputed on demand (not yet: see the report). */
     trajectory: null
   };
 }

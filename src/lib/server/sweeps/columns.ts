@@ -41,7 +41,23 @@ export const RESULT_COLUMNS: readonly ResultColumn[] = Object.freeze([
   c('rotationAssist', 'rotation_assist', 'rotation assist', 'm/s', false),
   c('transferDeltaV', 'transfer_delta_v', 'transfer delta-v', 'm/s', false),
   c('planeChangeDeltaV', 'plane_change_delta_v', 'plane-change delta-v', 'm/s', false),
-  c('reserveDeltaV', 'reserve_delta_v', 'reserve delta-v', 'm/s', false)
+  c('reserveDeltaV', 'reserve_delta_v', 'reserve delta-v', 'm/s', false),
+  // Added by migration 0013 (the rest of src/lib/sweep/evaluate.ts CASE_RESULT_COLUMNS).
+  c('stage1PropellantMass', 'stage1_propellant_mass', 'stage 1 propellant mass', 'kg', false),
+  c('stage2PropellantMass', 'stage2_propellant_mass', 'stage 2 propellant mass', 'kg', false),
+  c('stage3PropellantMass', 'stage3_propellant_mass', 'stage 3 propellant mass', 'kg', false),
+  c('stage4PropellantMass', 'stage4_propellant_mass', 'stage 4 propellant mass', 'kg', false),
+  c('stage1DryMass', 'stage1_dry_mass', 'stage 1 dry mass', 'kg', false),
+  c('stage2DryMass', 'stage2_dry_mass', 'stage 2 dry mass', 'kg', false),
+  c('stage3DryMass', 'stage3_dry_mass', 'stage 3 dry mass', 'kg', false),
+  c('stage4DryMass', 'stage4_dry_mass', 'stage 4 dry mass', 'kg', false),
+  c('upperStageThrustToWeight', 'upper_stage_thrust_to_weight', 'upper-stage T/W', '', false),
+  c('launchAzimuth', 'launch_azimuth', 'launch azimuth', 'deg', false),
+  c('liftoffThrustToWeightMargin', 'liftoff_thrust_to_weight_margin', 'lift-off T/W margin', '', false),
+  c('dynamicPressureMargin', 'dynamic_pressure_margin', 'max-Q margin', 'Pa', false),
+  c('axialAccelerationMargin', 'axial_acceleration_margin', 'axial acceleration margin', 'm/s²', false),
+  c('payloadMargin', 'payload_margin', 'payload margin', 'kg', false),
+  c('glowMargin', 'glow_margin', 'GLOW margin', 'kg', false)
 ]);
 
 export const RESULT_KEYS = RESULT_COLUMNS.map((r) => r.key);

@@ -1,18 +1,18 @@
 /**
  * The compute side of a sweep, pure (no I/O): it runs in the compute threads and, for single
  * cases, in the web server. Builds on SWEEP-CORE (src/lib/sweep): the case plan (`planOf`,
- * `plan.fill`), the non-dominated sort (`nonDominated`, `paretoRanks`).
+ * `plan.fill`), the evaluator (`makeEvaluator` → flat `CaseResult`, `evaluateCase` with
+ * detail), the non-dominated sort (`nonDominated`, `paretoRanks`).
  */
-import { planOf, type CasePlan } from '../../sweep/cases';
+import type { CasePlan } from '../../sweep/cases';
+import { SWEEP_MODEL_VERSION, caseReasonCodes, evaluateCase, makeEvaluator, type CaseResult } from '../../sweep/evaluate';
 import { nonDominated, paretoRanks, type Direction } from '../../sweep/pareto';
 import { assertSweepSpec, type SweepSpec } from '../../sweep/spec';
-import { codesFromMask } from '../../physics/reasons';
 import { COLUMN_BY_KEY, PARAM_SLOTS, RESULT_COLUMNS } from './columns';
 import { emptyChunk, VALUE_WIDTH, type ChunkResult } from './chunk-result';
-import { makeInterimEvaluator, type FlatCase } from './interim-evaluator';
 
 /** Recorded with every sweep: which model produced its numbers. */
-export const MODEL_VERSION = 'loftwise-model-0.1';
+export const MODEL_VERSION = SWEEP_MODEL_VERSION;
 
 /**
  * Cases per chunk job, for ~0.2–2 s of work per job (measured: see tests/bench/sweeps.bench.ts).
@@ -21,7 +21,7 @@ export const MODEL_VERSION = 'loftwise-model-0.1';
  * share even a small sweep.
  */
 export function chunkSizeFor(mode: 'budget' | 'ascent', total: number): number {
-  const target = mode === 'budget' ? 10_000 : 100;
+  const target = mode === 'budget' ? 10_000 : 250;
   // Small sweeps still split into a few chunks, so several workers share them.
   const min = mode === 'budget' ? 250 : 10;
   return Math.max(min, Math.min(target, Math.ceil(total / 8)));
@@ -30,17 +30,17 @@ export function chunkSizeFor(mode: 'budget' | 'ascent', total: number): number {
 export interface PreparedSweep {
   spec: SweepSpec;
   plan: CasePlan;
-  evaluate: (index: number) => FlatCase;
+  evaluate: (index: number) => CaseResult;
   objectiveSlots: number[];
   directions: Direction[];
 }
 
 export function prepareSweep(raw: unknown): PreparedSweep {
   const spec = assertSweepSpec(raw, { caseCap: Number.MAX_SAFE_INTEGER });
-  const plan = planOf(spec);
   const objectiveSlots = spec.objectives.map((o) => RESULT_COLUMNS.findIndex((c) => c.key === o.metric));
   if (objectiveSlots.some((s) => s < 0)) throw new Error('an objective has no result column');
-  return { spec, plan, evaluate: makeInterimEvaluator(spec, plan), objectiveSlots, directions: spec.objectives.map((o) => o.direction) };
+  const evaluator = makeEvaluator(spec);
+  return { spec, plan: evaluator.plan, evaluate: (i) => evaluator.evaluate(i), objectiveSlots, directions: spec.objectives.map((o) => o.direction) };
 }
 
 const KEYS = RESULT_COLUMNS.map((c) => c.key);
@@ -59,12 +59,12 @@ export function evaluateChunk(p: PreparedSweep, chunkIndex: number, start: numbe
       const c = p.evaluate(index);
       const off = i * VALUE_WIDTH;
       for (let k = 0; k < VALUE_WIDTH; k++) {
-        const v = c.values[KEYS[k]];
+        const v = (c as unknown as Record<string, unknown>)[KEYS[k]];
         r.values[off + k] = typeof v === 'number' && Number.isFinite(v) ? v : NaN;
       }
       r.feasible[i] = c.feasible ? 1 : 0;
       r.failMask[i] = c.failMask >>> 0;
-      r.reasons[i] = codesFromMask(c.failMask).join(',');
+      r.reasons[i] = c.reasons.join(',');
       r.detail[i] = null;
       if (c.feasible) r.feasibleCount++;
     } catch (e) {
@@ -99,17 +99,30 @@ export function rankFeasible(objectives: Float64Array[], directions: Direction[]
   return paretoRanks(objectives, directions);
 }
 
-/** One case in full, for the case page and previews (re-evaluated, never stored). */
+/** Swept values by path (catalogue choices by id) of one case. */
+export function caseParams(p: PreparedSweep, index: number) {
+  return p.plan.caseAt(index).params;
+}
+
+/**
+ * One case in full, for the case page and previews (re-evaluated with detail, never stored):
+ * flat values, reasons, and SWEEP-CORE's detail (budget terms with origins, stage table,
+ * constraint checks, assumptions).
+ */
 export function evaluateOne(p: PreparedSweep, index: number) {
-  const sc = p.plan.caseAt(index);
-  const c = p.evaluate(index);
+  const params = caseParams(p, index);
+  const c = evaluateCase(p.spec, params, index);
   const values: Record<string, number | null> = {};
-  for (const k of KEYS) values[k] = Number.isFinite(c.values[k]) ? c.values[k] : null;
+  for (const k of KEYS) {
+    const v = (c as unknown as Record<string, unknown>)[k];
+    values[k] = typeof v === 'number' && Number.isFinite(v) ? v : null;
+  }
   return {
     caseIndex: index,
-    params: sc.params,
+    params,
     feasible: c.feasible,
-    reasons: codesFromMask(c.failMask),
+    reasons: [...c.reasons],
+    warnings: caseReasonCodes(c.warnMask),
     values,
     units: Object.fromEntries(RESULT_COLUMNS.map((col) => [col.key, col.unit])),
     detail: c.detail

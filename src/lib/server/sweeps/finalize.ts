@@ -10,6 +10,8 @@ import { batchInsert } from './store';
 import { withConnection } from './pool';
 import { buildSummary, type SweepSummary } from './summary';
 import type { SweepSpec } from '../../sweep/spec';
+import type { Direction } from '../../sweep/pareto';
+import type { SweepWorkRow } from './store';
 
 export interface FeasiblePoints {
   indexes: Uint32Array;
@@ -82,3 +84,38 @@ export async function writeRanks(sweepId: number, indexes: Uint32Array, ranks: I
 
 export type { SweepSummary };
 export { buildSummary };
+
+/**
+ * Ranks, stores ranks and summary, and marks the sweep completed (only if still running).
+ * `rank` runs the non-dominated sort (in a compute thread in the worker).
+ */
+export async function completeSweep(
+  s: SweepWorkRow,
+  spec: SweepSpec,
+  rank: (objectives: Float64Array[], directions: Direction[]) => Promise<Int32Array>
+) {
+  const cols = objectiveColumns(spec);
+  const t0 = performance.now();
+  const points = await readFeasiblePoints(s.id, cols.map((c) => c.column), s.feasibleCases);
+  const t1 = performance.now();
+  const ranks = points.indexes.length ? await rank(points.objectives, cols.map((c) => c.direction)) : new Int32Array(0);
+  const t2 = performance.now();
+  await writeRanks(s.id, points.indexes, ranks);
+  const t3 = performance.now();
+  const summary = await buildSummary(s.id, spec, { total: s.totalCases, failed: s.failedCases });
+  const timings = {
+    ranked: points.indexes.length,
+    readMs: Math.round(t1 - t0),
+    rankMs: Math.round(t2 - t1),
+    writeRanksMs: Math.round(t3 - t2),
+    summaryMs: Math.round(performance.now() - t3)
+  };
+  await withConnection((conn) =>
+    conn.query(
+      `UPDATE sweeps SET status = 'completed', summary = ?, finished_at = UTC_TIMESTAMP(), updated_at = UTC_TIMESTAMP()
+       WHERE id = ? AND status = 'running'`,
+      [JSON.stringify({ ...summary, timings }), s.id]
+    )
+  );
+  return timings;
+}

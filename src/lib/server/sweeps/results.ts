@@ -6,7 +6,7 @@
  */
 import type { PoolConnection } from 'mariadb';
 import { z } from 'zod';
-import { codesFromMask } from '../../physics/reasons';
+import { caseReasonCodes } from '../../sweep/evaluate';
 import { planOf, type CaseDimension } from '../../sweep/cases';
 import { mergeFronts, type FrontMember } from '../../sweep/pareto';
 import type { SweepSpec } from '../../sweep/spec';
@@ -75,7 +75,7 @@ export function toCaseRow(r: Record<string, unknown>, dims: readonly CaseDimensi
     chunkIndex: Number(r.chunk_index),
     feasible: Number(r.feasible) === 1,
     failed,
-    reasons: failed ? ['EVALUATION_FAILED'] : codesFromMask(Number(r.fail_mask)),
+    reasons: failed ? ['EVALUATION_FAILED'] : [...caseReasonCodes(Number(r.fail_mask))],
     error: failed ? text.replace(/^EVALUATION_FAILED:\s*/, '') : null,
     paretoRank: r.pareto_rank === null ? null : Number(r.pareto_rank),
     chunkFront: Number(r.chunk_front) === 1,

@@ -135,13 +135,14 @@ export async function storedCaseCount(sweepId: number): Promise<number> {
   });
 }
 
-/** Deletes a sweep's case rows in slices (no long lock), then the sweep (cascade: chunks, links). */
+/** Deletes a sweep's case rows in slices (no long lock), its chunk ledger, then the sweep (cascade: share links). */
 export async function deleteSweepRows(sweepId: number) {
   await withConnection(async (conn) => {
     for (;;) {
       const r = await conn.query('DELETE FROM sweep_cases WHERE sweep_id = ? LIMIT 20000', [sweepId]);
       if (Number(r.affectedRows) === 0) break;
     }
+    await conn.query('DELETE FROM sweep_chunks WHERE sweep_id = ?', [sweepId]);
     await conn.query('DELETE FROM sweeps WHERE id = ?', [sweepId]);
   });
 }

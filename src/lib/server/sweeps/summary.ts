@@ -7,7 +7,7 @@
  * arrays; at a million cases the aggregate query is the cheaper place.
  */
 import type { PoolConnection } from 'mariadb';
-import { REASON_CODES } from '../../physics/reasons';
+import { CASE_REASON_CODES as REASON_CODES } from '../../sweep/evaluate';
 import { planOf } from '../../sweep/cases';
 import type { SweepSpec } from '../../sweep/spec';
 import { COLUMN_BY_KEY } from './columns';

@@ -1,5 +1,27 @@
 import type { QueryInterface } from 'sequelize';
-import { PARAM_COLUMNS, RESULT_COLUMNS, indexName } from '../../sweeps/columns';
+// The columns as they were when this migration was written (later ones: 0013).
+const RESULT_COLUMNS = [
+  ['glow', true],
+  ['payload_mass', true],
+  ['payload_fraction', true],
+  ['dry_mass', true],
+  ['propellant_mass', true],
+  ['max_dynamic_pressure', true],
+  ['max_axial_acceleration', true],
+  ['total_losses', true],
+  ['required_delta_v', true],
+  ['liftoff_thrust_to_weight', true],
+  ['insertion_speed', false],
+  ['gravity_loss', false],
+  ['drag_loss', false],
+  ['steering_loss', false],
+  ['rotation_assist', false],
+  ['transfer_delta_v', false],
+  ['plane_change_delta_v', false],
+  ['reserve_delta_v', false]
+].map(([column, indexed]) => ({ column: column as string, indexed: indexed as boolean }));
+const PARAM_COLUMNS = Array.from({ length: 10 }, (_, i) => `p${i}`);
+const indexName = (column: string) => `sweep_cases_${column}`;
 
 /**
  * One row per (sweep, case index): the flat numeric result, the feasible flag and reasons,

@@ -20,8 +20,9 @@ export async function up({ context: qi }: { context: QueryInterface }) {
 }
 
 export async function down({ context: qi }: { context: QueryInterface }) {
-  if (!(await fkName(qi)))
-    await qi.sequelize.query(
+  if (await fkName(qi)) return;
+  await qi.sequelize.query('DELETE c FROM sweep_chunks c LEFT JOIN sweeps s ON s.id = c.sweep_id WHERE s.id IS NULL');
+  await qi.sequelize.query(
       'ALTER TABLE sweep_chunks ADD CONSTRAINT sweep_chunks_sweep_fk FOREIGN KEY (sweep_id) REFERENCES sweeps (id) ON DELETE CASCADE'
     );
 }
