@@ -14,11 +14,12 @@ export async function reportData(sweep: Sweep) {
   const first = view.objectives[0];
   const sortable = new Set(['glow', 'payloadMass', 'payloadFraction', 'dryMass', 'propellantMass', 'maxDynamicPressure', 'maxAxialAcceleration', 'totalLosses', 'requiredDeltaV']);
   const q = new URLSearchParams({ limit: String(TOP_OPTIONS), feasible: '1' });
-  if (first && sortable.has(first.metric)) {
+  // Completed: the best-ranked options (front first); still running: the best on the first objective.
+  if (view.status === 'completed') q.set('sort', 'paretoRank');
+  else if (first && sortable.has(first.metric)) {
     q.set('sort', first.metric);
     q.set('dir', first.direction === 'min' ? 'asc' : 'desc');
   }
-  if (view.status === 'completed') q.set('rank', '1');
   const [f, top, cloud] = await Promise.all([
     front(sweep),
     casePage(sweep, parseCaseQuery(q)),

@@ -12,9 +12,30 @@ import type { Actions, PageServerLoad } from './$types';
 /** Largest spec the builder accepts (form field or uploaded file), in bytes. */
 const MAX_SPEC_BYTES = 256 * 1024;
 
-/** A plain starting point: the sizing example without the swept parameters' catalogue ids. */
-function starterSpec() {
-  return structuredClone(EXAMPLE_SIZING_INPUT);
+type Entry = { id: string; name: string; ispSeaLevel: number; ispVacuum: number };
+
+/**
+ * A valid starting point: the two-stage sizing example, with its propulsion taken from this
+ * workspace's own catalogue when it has entries (a booster engine below, vacuum engines above).
+ */
+function starterSpec(entries: Entry[]) {
+  const spec = structuredClone(EXAMPLE_SIZING_INPUT) as typeof EXAMPLE_SIZING_INPUT & Record<string, unknown>;
+  spec.name = 'New sweep';
+  spec.question = '';
+  delete spec.baseline.name;
+  const booster = [...entries].filter((e) => e.ispSeaLevel > 0).sort((a, b) => b.ispSeaLevel - a.ispSeaLevel)[0];
+  const upper = [...entries].filter((e) => e.ispSeaLevel === 0 || e.ispVacuum - e.ispSeaLevel > 60).sort((a, b) => b.ispVacuum - a.ispVacuum);
+  const asPropulsion = (e: Entry) => ({ catalogueId: e.id, name: e.name, ispSeaLevel: e.ispSeaLevel, ispVacuum: e.ispVacuum });
+  const [s0, s1] = spec.baseline.stages;
+  s0.name = 'First stage';
+  s1.name = 'Upper stage';
+  if (booster) s0.propulsion = asPropulsion(booster);
+  if (upper.length) {
+    s1.propulsion = asPropulsion(upper[upper.length - 1]);
+    const choice = spec.sweep.parameters?.find((p) => p.path === 'stages.1.propulsion');
+    if (choice) choice.values = { kind: 'choices', options: upper.slice(0, 3).map((e) => ({ ...e })) };
+  }
+  return spec;
 }
 
 export const load: PageServerLoad = async ({ locals, params, url }) => {
@@ -23,7 +44,8 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
     listStudies(locals, { workspace: access.workspace.id }),
     catalogue.list(access.workspace.id)
   ]);
-  let spec: unknown = starterSpec();
+  const choices: Entry[] = entries.map((e) => ({ id: String(e.id), name: e.name, ispSeaLevel: e.ispSeaLevelS ?? 0, ispVacuum: e.ispVacuumS }));
+  let spec: unknown = starterSpec(choices);
   let clonedFrom: { id: number; name: string } | null = null;
   let studyId = url.searchParams.get('study') ?? '';
   const cloneRaw = url.searchParams.get('clone');
