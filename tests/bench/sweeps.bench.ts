@@ -24,7 +24,7 @@ const { sequelize } = await import('../../src/lib/server/db/sequelize');
 const { closeQueues, queue } = await import('../../src/lib/server/queue');
 const { closeRawPool, withConnection } = await import('../../src/lib/server/sweeps/pool');
 const { evaluateChunk, prepareSweep, chunkSizeFor, MODEL_VERSION } = await import('../../src/lib/server/sweeps/engine');
-const { INSERT_CASES_SQL, batchInsert, caseRows, deleteSweepRows } = await import('../../src/lib/server/sweeps/store');
+const { INSERT_CASES_SQL, INSERT_MARKS_SQL, batchInsert, caseRows, deleteSweepRows, frontMarkRows } = await import('../../src/lib/server/sweeps/store');
 const { emptyChunk, VALUE_WIDTH } = await import('../../src/lib/server/sweeps/chunk-result');
 const { RESULT_COLUMNS, PARAM_SLOTS } = await import('../../src/lib/server/sweeps/columns');
 const { readFeasiblePoints, writeRanks } = await import('../../src/lib/server/sweeps/finalize');
@@ -175,6 +175,7 @@ try {
   for (const s of [w, b, a]) await deleteSweepRows(s.id);
 } finally {
   await Promise.all(farm.map((x) => x.stop()));
+  await closeQueues();
 }
 
 console.log('\n2. Pareto ranking, 1,000,000 × 3 objectives (seeded uniform random)');
@@ -229,8 +230,10 @@ if (!big || big.doneCases !== bigN) {
       const inc = new Uint8Array(r.feasible);
       const o = [0, 3, 7].map((slot) => Float64Array.from({ length: r.count }, (_, i) => r.values[i * VALUE_WIDTH + slot]));
       for (const i of nonDominated(o, ['min', 'min', 'min'], inc)) r.chunkFront[i] = 1;
+      r.objectiveSlots = [0, 3, 7];
       await c.beginTransaction();
       await batchInsert(c, INSERT_CASES_SQL, caseRows(big!.id, r));
+      await batchInsert(c, INSERT_MARKS_SQL, frontMarkRows(big!.id, r));
       await c.commit();
     }
   });
@@ -276,6 +279,5 @@ const live = await front(big);
 await median(`front: live, merge of ${fmt(live.candidates)} per-chunk marks`, () => front(big!), 5);
 await Sweep.update({ status: 'completed' }, { where: { id: big.id } });
 
-await closeQueues();
 await closeRawPool();
 await sequelize.close();

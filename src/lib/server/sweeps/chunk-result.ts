@@ -21,6 +21,8 @@ export interface ChunkResult {
   failMask: Uint32Array;
   /** 1 when non-dominated among the chunk's feasible cases on the sweep's objectives. */
   chunkFront: Uint8Array;
+  /** Slots (in `values`) of the sweep's objectives, for the live-front marks. */
+  objectiveSlots: number[];
   /** Comma-separated reason codes, with the message for failed cases. */
   reasons: string[];
   /** Per-case JSON text of the non-flat parts (stage masses...), or null. */
@@ -43,6 +45,7 @@ export function emptyChunk(chunkIndex: number, start: number, count: number): Ch
     failed: new Uint8Array(count),
     failMask: new Uint32Array(count),
     chunkFront: new Uint8Array(count),
+    objectiveSlots: [],
     reasons: new Array<string>(count).fill(''),
     detail: new Array<string | null>(count).fill(null),
     feasibleCount: 0,

@@ -50,6 +50,7 @@ export function evaluateChunk(p: PreparedSweep, chunkIndex: number, start: numbe
   const t0 = performance.now();
   const n = end - start;
   const r = emptyChunk(chunkIndex, start, n);
+  r.objectiveSlots = p.objectiveSlots;
   const x = new Float64Array(Math.max(1, p.plan.dimensions.length));
   for (let i = 0; i < n; i++) {
     const index = start + i;

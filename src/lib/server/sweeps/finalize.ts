@@ -71,11 +71,17 @@ export async function writeRanks(sweepId: number, indexes: Uint32Array, ranks: I
       const rows: unknown[][] = new Array(indexes.length);
       for (let i = 0; i < indexes.length; i++) rows[i] = [indexes[i], ranks[i] > 0 ? ranks[i] : null];
       await batchInsert(conn, 'INSERT INTO tmp_sweep_ranks (case_index, pareto_rank) VALUES (?, ?)', rows, 20_000);
-      await conn.query(
-        `UPDATE sweep_cases c JOIN tmp_sweep_ranks t ON c.sweep_id = ? AND c.case_index = t.case_index
-         SET c.pareto_rank = t.pareto_rank`,
-        [sweepId]
-      );
+      // Slices of case indexes, each its own transaction: one 1M-row UPDATE builds a huge undo
+      // log and thrashes the buffer pool.
+      for (let k = 0; k < indexes.length; k += 50_000) {
+        const lo = indexes[k];
+        const hi = indexes[Math.min(indexes.length, k + 50_000) - 1];
+        await conn.query(
+          `UPDATE sweep_cases c JOIN tmp_sweep_ranks t ON c.sweep_id = ? AND c.case_index = t.case_index
+           SET c.pareto_rank = t.pareto_rank WHERE t.case_index BETWEEN ? AND ?`,
+          [sweepId, lo, hi]
+        );
+      }
     } finally {
       await conn.query('DROP TEMPORARY TABLE IF EXISTS tmp_sweep_ranks');
     }
@@ -110,12 +116,14 @@ export async function completeSweep(
     writeRanksMs: Math.round(t3 - t2),
     summaryMs: Math.round(performance.now() - t3)
   };
-  await withConnection((conn) =>
-    conn.query(
+  await withConnection(async (conn) => {
+    await conn.query(
       `UPDATE sweeps SET status = 'completed', summary = ?, finished_at = UTC_TIMESTAMP(), updated_at = UTC_TIMESTAMP()
        WHERE id = ? AND status = 'running'`,
       [JSON.stringify({ ...summary, timings }), s.id]
-    )
-  );
+    );
+    // The ranks now give the front; the live candidates are no longer needed.
+    await conn.query('DELETE FROM sweep_front_marks WHERE sweep_id = ?', [s.id]);
+  });
   return timings;
 }

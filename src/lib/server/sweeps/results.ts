@@ -174,7 +174,7 @@ function whereClause(sweepId: number, q: Pick<CaseQuery, 'feasibleOnly' | 'rank'
 }
 
 /** Counting beyond this many matching rows is not worth a full scan: `totalIsExact` turns false. */
-const COUNT_LIMIT = 100_000;
+const COUNT_LIMIT = 10_000;
 
 export async function casePage(sweep: Sweep, q: CaseQuery) {
   const dims = dimensionsOf(sweep.spec as SweepSpec);
@@ -195,10 +195,21 @@ export async function casePage(sweep: Sweep, q: CaseQuery) {
   }
   const order = q.sort === 'caseIndex' ? `case_index ${dir}` : `${col} ${dir}, case_index ${dir}`;
   return withConnection(async (conn) => {
-    const rows = await conn.query(
-      `SELECT ${SELECT_COLUMNS} FROM sweep_cases WHERE ${pageWhere.join(' AND ')} ORDER BY ${order} LIMIT ? OFFSET ?`,
+    // Deferred join: find the page's keys on the (sweep_id, column) index first, then read only
+    // those rows — an OFFSET then skips index entries, not whole rows.
+    const keys = (await conn.query(
+      { sql: `SELECT case_index FROM sweep_cases WHERE ${pageWhere.join(' AND ')} ORDER BY ${order} LIMIT ? OFFSET ?`, rowsAsArray: true },
       [...pageArgs, q.limit, q.offset]
-    );
+    )) as number[][];
+    const byIndex = new Map<number, Record<string, unknown>>();
+    if (keys.length) {
+      const found = (await conn.query(
+        `SELECT ${SELECT_COLUMNS} FROM sweep_cases WHERE sweep_id = ? AND case_index IN (${keys.map(() => '?').join(',')})`,
+        [sweep.id, ...keys.map((k) => k[0])]
+      )) as Record<string, unknown>[];
+      for (const r of found) byIndex.set(Number(r.case_index), r);
+    }
+    const rows = keys.map((k) => byIndex.get(Number(k[0]))!).filter(Boolean);
     const cases = (rows as Record<string, unknown>[]).map((r) => toCaseRow(r, dims));
     const last = cases.at(-1);
     const next =
@@ -211,9 +222,15 @@ export async function casePage(sweep: Sweep, q: CaseQuery) {
 }
 
 async function countMatching(conn: PoolConnection, sweep: Sweep, q: CaseQuery, where: string[], args: unknown[]) {
-  const filtered = q.rank !== null || Object.keys(q.min).length > 0 || Object.keys(q.max).length > 0 || q.sort !== 'caseIndex';
-  // The counters already hold the unfiltered totals.
-  if (!filtered) return { total: q.feasibleOnly ? sweep.feasibleCases : sweep.doneCases, exact: true };
+  const filtered = q.rank !== null || Object.keys(q.min).length > 0 || Object.keys(q.max).length > 0;
+  // The counters already hold the unfiltered totals. The sort columns are never null except
+  // in failed cases (the evaluator's flat result is finite), which a sorted page leaves out.
+  if (!filtered) {
+    const base = q.feasibleOnly ? sweep.feasibleCases : sweep.doneCases;
+    // Ranks exist for the feasible cases once the sweep is completed.
+    if (q.sort === 'paretoRank') return { total: sweep.status === 'completed' ? sweep.feasibleCases : 0, exact: true };
+    return { total: q.sort === 'caseIndex' || q.feasibleOnly ? base : base - sweep.failedCases, exact: true };
+  }
   const [r] = await conn.query(`SELECT COUNT(*) AS n FROM (SELECT 1 FROM sweep_cases WHERE ${where.join(' AND ')} LIMIT ${COUNT_LIMIT + 1}) t`, args);
   const n = Number(r.n);
   return n > COUNT_LIMIT ? { total: COUNT_LIMIT, exact: false } : { total: n, exact: true };
@@ -232,7 +249,7 @@ export const FRONT_LIMIT = 5_000;
 
 /**
  * The Pareto front: rank 1 of a completed sweep; while it runs, the non-dominated set of the
- * union of every stored chunk's own front (chunk_front = 1), merged here with SWEEP-CORE's
+ * union of every stored chunk's own front (sweep_front_marks), merged here with SWEEP-CORE's
  * mergeFronts — the same set the final ranking gives for the cases stored so far.
  */
 export async function front(sweep: Sweep) {
@@ -251,9 +268,9 @@ export async function front(sweep: Sweep) {
       );
       candidates = rows.length;
     } else {
-      // Objective values only, through the (sweep_id, chunk_front) index; full rows for the winners.
+      // The candidates' objective values from the narrow marks table; full rows for the winners.
       const cand = (await conn.query(
-        { sql: `SELECT case_index, ${objectives.map((o) => o.column).join(', ')} FROM sweep_cases WHERE sweep_id = ? AND chunk_front = 1`, rowsAsArray: true },
+        { sql: `SELECT case_index, ${objectives.map((_, j) => `o${j + 1}`).join(', ')} FROM sweep_front_marks WHERE sweep_id = ?`, rowsAsArray: true },
         [sweep.id]
       )) as (number | null)[][];
       candidates = cand.length;

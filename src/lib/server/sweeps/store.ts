@@ -35,6 +35,20 @@ export const INSERT_CASES_SQL = `INSERT IGNORE INTO sweep_cases (${CASE_COLUMNS.
 
 const num = (x: number) => (Number.isFinite(x) ? x : null);
 
+export const INSERT_MARKS_SQL = 'INSERT IGNORE INTO sweep_front_marks (sweep_id, case_index, o1, o2, o3, o4) VALUES (?, ?, ?, ?, ?, ?)';
+
+/** The chunk's own front (chunkFront = 1) with its objective values, for the live front. */
+export function frontMarkRows(sweepId: number, r: ChunkResult): unknown[][] {
+  const rows: unknown[][] = [];
+  if (r.objectiveSlots.length < 2) return rows;
+  for (let i = 0; i < r.count; i++) {
+    if (!r.chunkFront[i]) continue;
+    const o = [0, 1, 2, 3].map((j) => (j < r.objectiveSlots.length ? num(r.values[i * VALUE_WIDTH + r.objectiveSlots[j]]) : null));
+    rows.push([sweepId, r.start + i, ...o]);
+  }
+  return rows;
+}
+
 /** The rows of a chunk as batch() parameter arrays. */
 export function caseRows(sweepId: number, r: ChunkResult): unknown[][] {
   const rows: unknown[][] = new Array(r.count);
@@ -90,6 +104,8 @@ export async function commitChunk(sweepId: number, r: ChunkResult, attempts: num
     }
     const inserted = await batchInsert(conn, INSERT_CASES_SQL, caseRows(sweepId, r));
     if (inserted !== r.count) throw new Error(`chunk ${r.chunkIndex}: ${inserted} of ${r.count} case rows inserted`);
+    const marks = frontMarkRows(sweepId, r);
+    if (marks.length) await batchInsert(conn, INSERT_MARKS_SQL, marks);
 
     const [sweep] = await conn.query('SELECT status FROM sweeps WHERE id = ? FOR UPDATE', [sweepId]);
     if (!sweep || (sweep.status !== 'queued' && sweep.status !== 'running')) {
@@ -143,6 +159,7 @@ export async function deleteSweepRows(sweepId: number) {
       if (Number(r.affectedRows) === 0) break;
     }
     await conn.query('DELETE FROM sweep_chunks WHERE sweep_id = ?', [sweepId]);
+    await conn.query('DELETE FROM sweep_front_marks WHERE sweep_id = ?', [sweepId]);
     await conn.query('DELETE FROM sweeps WHERE id = ?', [sweepId]);
   });
 }
