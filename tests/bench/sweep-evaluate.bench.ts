@@ -5,15 +5,20 @@
  */
 import { EXAMPLE_PAYLOAD_INPUT, EXAMPLE_SIZING_INPUT } from '../../src/lib/sweep/examples';
 import { makeCasePlan } from '../../src/lib/sweep/cases';
-import { makeEvaluator } from '../../src/lib/sweep/evaluate';
+import { createCaseResult, makeEvaluator } from '../../src/lib/sweep/evaluate';
 import { assertSweepSpec, type SweepSpecInput } from '../../src/lib/sweep/spec';
 
 function rate(label: string, n: number, fn: () => number): void {
   fn(); // warm-up
   const t0 = performance.now();
+  const cpu0 = process.cpuUsage();
   const check = fn();
+  const cpu = process.cpuUsage(cpu0);
   const s = (performance.now() - t0) / 1000;
-  console.log(`sweep  ${label.padEnd(52)} ${Math.round(n / s).toLocaleString('en-US').padStart(11)} cases/s  (${n.toLocaleString('en-US')} in ${s.toFixed(2)} s; check ${check.toFixed(0)})`);
+  // Per core: cases per second of this process's CPU time (the machine may be shared), wall beside it.
+  const cpuS = (cpu.user + cpu.system) / 1e6;
+  const fmt = (x: number) => Math.round(x).toLocaleString('en-US').padStart(11);
+  console.log(`sweep  ${label.padEnd(66)} ${fmt(n / cpuS)} cases/s per core (CPU) | ${fmt(n / s)} wall  (${n.toLocaleString('en-US')} in ${s.toFixed(2)} s; check ${check.toFixed(0)})`);
 }
 
 const sizingGrid: SweepSpecInput = {
@@ -61,9 +66,16 @@ for (const [label, input] of [
   ['generate + evaluate: payload, budget mode, LHS', payloadLhs]
 ] as const) {
   const ev = makeEvaluator(assertSweepSpec(input));
-  rate(label, ev.total, () => {
+  rate(`${label} (evaluate)`, ev.total, () => {
     let s = 0;
     for (let i = 0; i < ev.total; i++) s += ev.evaluate(i).glow;
+    return s;
+  });
+  // The chunk loop of a worker: one result object reused for every case (same values).
+  const out = createCaseResult();
+  rate(`${label} (evaluateInto)`, ev.total, () => {
+    let s = 0;
+    for (let i = 0; i < ev.total; i++) s += ev.evaluateInto(i, out).glow;
     return s;
   });
 }

@@ -272,6 +272,29 @@ function requiredSlope(x: number): number {
   return ((1 + REQ.rf) * s) / m;
 }
 
+// dΔv_vehicle/dx of the last deltaVAndSlope call.
+let SLOPE = 0;
+
+/**
+ * Δv_vehicle(x) = Σ c_i·ln(m0_i/(m0_i − mp_i)) (exactly as vehicleDeltaVKernel sums it) and, into
+ * SLOPE, its derivative Σ c_i·(1/m0_i − 1/(m0_i − mp_i)) in the same pass over the stages.
+ */
+function deltaVAndSlope(k: number, mp: Float64Array, md: Float64Array, x: number): number {
+  let m0 = x;
+  let dv = 0;
+  let df = 0;
+  for (let i = k - 1; i >= 0; i--) {
+    const p = mp[i];
+    m0 += p + md[i];
+    const mf = m0 - p;
+    // Rocket equation for stage i and its derivative in the payload.
+    dv += C[i] * Math.log(m0 / mf);
+    df += C[i] * (1 / m0 - 1 / mf);
+  }
+  SLOPE = df;
+  return dv;
+}
+
 /** Required delta-v for payload x: ψ = T0/((M + x)·G0) feeds the loss correlation. */
 function required(x: number): number {
   const psi = REQ.t0 / ((REQ.dryTotal + x) * G0);
@@ -395,7 +418,7 @@ function clearStages(out: BudgetCaseResult, count: number): void {
  * Evaluate one budget-mode case: delta-v budget, sizing (or payload), feasibility.
  *
  * Formulas: budget total = v_ins + Δv_g + Δv_d + Δv_s − ω·R·cos φ·sin β + Δv_transfer +
- * Δv_plane + reserve (see budget.ts; losses from the correlation a + b/ψ + c·h, d0 + d1·ψ, s + sh·h when
+ * Δv_plane + reserve (see budget.ts; losses from the correlation a + b/ψ + c·h, d0 + d1·ψ, s when
  * not given); sizing by the Lagrange-multiplier optimum (rocket.ts) with m0 = m_L/π; vehicle mode
  * solves Σ c_i·ln(m0_i/(m0_i − mp_i)) = total(ψ(m_L)) for m_L, ψ = T_0/((M + m_L)·G0); max axial
  * acceleration = max_i T_i/(m0_i − mp_i) (vacuum thrust at burn-out, drag neglected).
@@ -409,7 +432,7 @@ function clearStages(out: BudgetCaseResult, count: number): void {
  * const input = createBudgetCaseInput();
  * input.isp.set([300, 345]); input.structuralCoefficient.set([0.07, 0.09]);
  * input.thrustToWeight.set([1.3, 0.9]); input.payloadMass = 5000;
- * evaluateBudgetCase(input).grossMass; // ≈ 1.776e5 kg (direct to 200 km, 28.5°)
+ * evaluateBudgetCase(input).grossMass; // ≈ 1.916e5 kg (direct to 200 km, 28.5°)
  */
 export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult = createBudgetCaseResult()): BudgetCaseResult {
   const k = input.stageCount;
@@ -570,26 +593,24 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
     REQ.rf = rf;
     REQ.rv = rv;
     let x = 0;
-    let f = vehicleDeltaVKernel(k, C, input.propellantMass, input.dryMass, 0) - required(0);
+    const mp = input.propellantMass;
+    const md = input.dryMass;
+    let f = deltaVAndSlope(k, mp, md, 0) - required(0);
     if (f < 0) {
       fail |= REASON_BIT.DELTA_V_UNREACHABLE;
       payload = 0;
     } else {
-      // Bracketed Newton on g(x) = Δv_vehicle(x) − required(x), analytic derivative.
+      // Bracketed Newton on g(x) = Δv_vehicle(x) − required(x), analytic derivative (the
+      // vehicle's part from the same pass that gave Δv_vehicle(x)).
       let lo = 0;
       let hi = Infinity;
       for (let it = 0; it < 100 && f !== 0; it++) {
-        let m0 = x;
-        let df = 0;
-        for (let i = k - 1; i >= 0; i--) {
-          m0 += input.propellantMass[i] + input.dryMass[i];
-          df += C[i] * (1 / m0 - 1 / (m0 - input.propellantMass[i]));
-        }
+        let df = SLOPE;
         if (!fixedLoss) df -= requiredSlope(x);
         let next = x - f / df;
         if (!(next > lo && next < hi)) next = hi === Infinity ? 2 * x + 0.01 * dryTotal : 0.5 * (lo + hi);
         x = next;
-        f = vehicleDeltaVKernel(k, C, input.propellantMass, input.dryMass, x) - required(x);
+        f = deltaVAndSlope(k, mp, md, x) - required(x);
         if (f > 0) lo = x;
         else hi = x;
         if (Math.abs(f) < 1e-9 || (hi !== Infinity && hi - lo <= 1e-12 * hi)) break;

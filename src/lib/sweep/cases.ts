@@ -20,7 +20,7 @@
  * sequential generators on npm cannot jump to draw i in O(1).
  */
 import { truncatedNormalMass, normalCdf, normalQuantile } from './distributions';
-import { STREAM, seededPermutation, uniform01 } from './random';
+import { STREAM, counterKey, dimKey, seededPermutation, streamKey, uniform01Keyed } from './random';
 import {
   estimateCaseCount,
   numericLevels,
@@ -97,6 +97,34 @@ function valueAt(d: CaseDimension, u: number): number {
   }
 }
 
+/** valueAt specialised to one dimension (one monomorphic closure per dimension, no switch per draw). */
+function makeSampler(d: CaseDimension): (u: number) => number {
+  switch (d.kind) {
+    case 'levels': {
+      const levels = d.levels;
+      const n = levels.length;
+      return (u) => {
+        const k = Math.floor(u * n);
+        return levels[k < n ? k : n - 1];
+      };
+    }
+    case 'choices': {
+      const n = d.options.length;
+      return (u) => {
+        const k = Math.floor(u * n);
+        return k < n ? k : n - 1;
+      };
+    }
+    case 'uniform': {
+      const min = d.min;
+      const span = d.max - d.min;
+      return (u) => min + u * span;
+    }
+    case 'normal':
+      return (u) => valueAt(d, u);
+  }
+}
+
 function buildDimensions(spec: SweepSpec): CaseDimension[] {
   return spec.sweep.parameters.map((p): CaseDimension => {
     const parsed = parseParameterPath(p.path);
@@ -168,22 +196,30 @@ export function makeCasePlan(spec: SweepSpec): CasePlan {
   } else if (sampling.plan === 'latinHypercube') {
     const seed = sampling.seed >>> 0;
     const perms: (Uint32Array | undefined)[] = new Array(nd).fill(undefined);
+    // uniform01(seed, lhsJitter, index, k) hashed in stages (random.ts): same draws, fewer mixes.
+    const jitterKey = streamKey(seed, STREAM.lhsJitter);
+    const dimKeys = Uint32Array.from({ length: nd }, (_, k) => dimKey(k));
+    const samplers = dims.map(makeSampler);
     fill = (index, out) => {
       checkIndex(index, total);
+      const ck = counterKey(jitterKey, index);
       for (let k = 0; k < nd; k++) {
         let perm = perms[k];
         if (!perm) perm = perms[k] = seededPermutation(total, seed, STREAM.lhsPermutation, k);
-        const jitter =
-          JITTER_MARGIN + (1 - 2 * JITTER_MARGIN) * uniform01(seed, STREAM.lhsJitter, index, k);
-        out[k] = valueAt(dims[k], (perm[index] + jitter) / total);
+        const jitter = JITTER_MARGIN + (1 - 2 * JITTER_MARGIN) * uniform01Keyed(ck, dimKeys[k]);
+        out[k] = samplers[k]((perm[index] + jitter) / total);
       }
       return out;
     };
   } else {
     const seed = sampling.seed >>> 0;
+    const randomKey = streamKey(seed, STREAM.random);
+    const dimKeys = Uint32Array.from({ length: nd }, (_, k) => dimKey(k));
+    const samplers = dims.map(makeSampler);
     fill = (index, out) => {
       checkIndex(index, total);
-      for (let k = 0; k < nd; k++) out[k] = valueAt(dims[k], uniform01(seed, STREAM.random, index, k));
+      const ck = counterKey(randomKey, index);
+      for (let k = 0; k < nd; k++) out[k] = samplers[k](uniform01Keyed(ck, dimKeys[k]));
       return out;
     };
   }

@@ -434,6 +434,58 @@ function limitsOf(spec: SweepSpec): FeasibilityLimits {
   };
 }
 
+/** Resets every field of `r` to {@link emptyResult}'s values (for reuse without allocation). */
+function resetResult(r: CaseResult, index: number): CaseResult {
+  r.index = index;
+  r.feasible = false;
+  r.failMask = 0;
+  r.warnMask = 0;
+  r.reasons = NO_REASONS;
+  r.glow = 0;
+  r.payloadMass = 0;
+  r.payloadFraction = 0;
+  r.propellantMass = 0;
+  r.dryMass = 0;
+  r.stage1PropellantMass = null;
+  r.stage2PropellantMass = null;
+  r.stage3PropellantMass = null;
+  r.stage4PropellantMass = null;
+  r.stage1DryMass = null;
+  r.stage2DryMass = null;
+  r.stage3DryMass = null;
+  r.stage4DryMass = null;
+  r.insertionSpeed = 0;
+  r.gravityLoss = 0;
+  r.dragLoss = 0;
+  r.steeringLoss = 0;
+  r.rotationAssist = 0;
+  r.transferDeltaV = 0;
+  r.planeChangeDeltaV = 0;
+  r.reserveDeltaV = 0;
+  r.requiredDeltaV = 0;
+  r.totalLosses = 0;
+  r.liftoffThrustToWeight = 0;
+  r.upperStageThrustToWeight = null;
+  r.maxDynamicPressure = 0;
+  r.maxAxialAcceleration = 0;
+  r.launchAzimuth = 0;
+  r.liftoffThrustToWeightMargin = null;
+  r.dynamicPressureMargin = null;
+  r.axialAccelerationMargin = null;
+  r.payloadMargin = null;
+  r.glowMargin = null;
+  r.detail = null;
+  return r;
+}
+
+/**
+ * A result with every column zeroed or null, shaped like every evaluated result (for callers
+ * of {@link SweepEvaluator.evaluateInto} that keep one object for a whole chunk).
+ */
+export function createCaseResult(index = 0): CaseResult {
+  return emptyResult(index);
+}
+
 function emptyResult(index: number): CaseResult {
   return {
     index,
@@ -563,6 +615,12 @@ export interface SweepEvaluator {
   readonly total: number;
   /** Evaluates case `index` into a new result. */
   evaluate(index: number): CaseResult;
+  /**
+   * Evaluates case `index` into `out` (every field overwritten) and returns it: the same values
+   * as {@link evaluate}, without allocating a result per case. The caller must copy what it
+   * keeps before the next call (`reasons` is a shared frozen array and may be kept).
+   */
+  evaluateInto(index: number, out: CaseResult): CaseResult;
 }
 
 /**
@@ -581,11 +639,11 @@ export function makeEvaluator(spec: SweepSpec, options: EvaluatorOptions = {}): 
   const budget = makeBudgetRunner(spec, limits);
   const ascent = spec.mode === 'ascent' ? makeAscentRunner(spec, limits, budget, base) : null;
 
-  const evaluate = (index: number): CaseResult => {
+  /** Evaluates case `index` into `r`, which holds emptyResult(index)'s values. */
+  const run = (index: number, r: CaseResult): CaseResult => {
     plan.fill(index, vec);
     copyWork(base, work);
     apply(work, vec);
-    const r = emptyResult(index);
     // Swept Isp values may cross: refuse the case, not the sweep.
     for (let i = 0; i < work.k; i++)
       if (!(work.ispSl[i] <= work.ispVac[i])) {
@@ -600,7 +658,7 @@ export function makeEvaluator(spec: SweepSpec, options: EvaluatorOptions = {}): 
     } catch (e) {
       // The core throws RangeError for values outside its model (e.g. a pole launch site).
       if (!(e instanceof RangeError)) throw e;
-      const out = finish(emptyResult(index), CASE_REASON_BIT.MODEL_INPUT_OUT_OF_RANGE, 0);
+      const out = finish(resetResult(r, index), CASE_REASON_BIT.MODEL_INPUT_OUT_OF_RANGE, 0);
       if (withDetail) out.detail = minimalDetail(spec, plan, index, [e.message]);
       return out;
     }
@@ -610,7 +668,9 @@ export function makeEvaluator(spec: SweepSpec, options: EvaluatorOptions = {}): 
     }
     return finish(r, r.failMask, r.warnMask);
   };
-  return Object.freeze({ plan, total: plan.total, evaluate });
+  const evaluate = (index: number): CaseResult => run(index, emptyResult(index));
+  const evaluateInto = (index: number, out: CaseResult): CaseResult => run(index, resetResult(out, index));
+  return Object.freeze({ plan, total: plan.total, evaluate, evaluateInto });
 }
 
 function minimalDetail(spec: SweepSpec, plan: CasePlan, index: number, messages: string[]): CaseDetail {

@@ -36,6 +36,33 @@ export function hash4(seed: number, stream: number, counter: number, dim: number
 
 const TWO_POW_32 = 4294967296;
 
+/*
+ * hash4 in three stages, for hot loops that draw many numbers with one (seed, stream) and one
+ * counter: hash4(s, t, c, d) = draw(counterKey(streamKey(s, t), c), dimKey(d)) exactly, so a
+ * plan hashes (seed, stream) once, each case's counter once, and each dimension once.
+ */
+
+/** The (seed, stream) part of hash4. */
+export function streamKey(seed: number, stream: number): number {
+  const h = mix32((seed ^ 0x243f6a88) >>> 0);
+  return mix32((h ^ mix32((stream + 0x9e3779b9) >>> 0)) >>> 0);
+}
+
+/** The counter step of hash4 on a streamKey. */
+export function counterKey(key: number, counter: number): number {
+  return mix32((key ^ mix32((counter + 0x7f4a7c15) >>> 0)) >>> 0);
+}
+
+/** The dimension's mixed value in hash4. */
+export function dimKey(dim: number): number {
+  return mix32((dim + 0x85ebca6b) >>> 0);
+}
+
+/** uniform01 from a counterKey and a dimKey: equal to uniform01(seed, stream, counter, dim). */
+export function uniform01Keyed(counterHash: number, dimHash: number): number {
+  return (mix32((counterHash ^ dimHash) >>> 0) + 0.5) / TWO_POW_32;
+}
+
 /**
  * A uniform number in the open interval (0, 1), from hash4. Resolution 2⁻³²: ample for
  * sampling plans of up to a few million cases, and never exactly 0 or 1 (safe for an inverse

@@ -7,7 +7,7 @@ import { describe, expect, test } from 'vitest';
 import { caseAt, casesInRange, chunkPlan, makeCasePlan } from '../../../src/lib/sweep/cases';
 import { normalCdf, normalQuantile, truncatedNormalInverse } from '../../../src/lib/sweep/distributions';
 import { EXAMPLE_PAYLOAD_INPUT, EXAMPLE_SIZING_INPUT, EXAMPLE_SPECS } from '../../../src/lib/sweep/examples';
-import { uniform01 } from '../../../src/lib/sweep/random';
+import { counterKey, dimKey, streamKey, uniform01, uniform01Keyed } from '../../../src/lib/sweep/random';
 import { assertSweepSpec, type SweepSpecInput } from '../../../src/lib/sweep/spec';
 
 type SweepParameterInput = SweepSpecInput['sweep']['parameters'] extends (infer P)[] | undefined ? P : never;
@@ -213,6 +213,19 @@ describe('normal distribution helpers', () => {
       expect(x).toBeLessThanOrEqual(15);
       expect(x).toBeGreaterThanOrEqual(prev);
       prev = x;
+    }
+  });
+});
+
+describe('staged hashing (hot-loop form of uniform01)', () => {
+  test('uniform01Keyed(counterKey(streamKey(s, t), c), dimKey(d)) is uniform01(s, t, c, d) exactly', () => {
+    for (let i = 0; i < 2000; i++) {
+      // Spread over the 32-bit range, edges included.
+      const s = i === 0 ? 0 : i === 1 ? 0xffffffff : (i * 2654435761) >>> 0;
+      const t = i % 5;
+      const c = (i * 40503 + 7) >>> 0;
+      const d = i % 11;
+      expect(uniform01Keyed(counterKey(streamKey(s, t), c), dimKey(d))).toBe(uniform01(s, t, c, d));
     }
   });
 });

@@ -10,6 +10,7 @@ import {
   CASE_REASON_BIT,
   CASE_RESULT_COLUMNS,
   caseReasonCodes,
+  createCaseResult,
   evaluateCase,
   makeEvaluator,
   type CaseResult
@@ -190,6 +191,17 @@ describe('budget mode results', () => {
         const { detail: bulkDetail, ...bulk } = ra;
         expect(bulkDetail).toBeNull();
         expect(flat).toEqual(bulk);
+      }
+    }
+  });
+
+  test('evaluateInto reusing one result object gives exactly the rows of evaluate', () => {
+    for (const spec of [sizing, payload, EXAMPLE_ASCENT_SPEC]) {
+      const ev = makeEvaluator(spec);
+      const out = createCaseResult();
+      // Backwards, so every reuse follows a different case (stale fields would show).
+      for (let i = ev.total - 1; i >= 0; i -= spec === EXAMPLE_ASCENT_SPEC ? 1 : 3) {
+        expect({ ...ev.evaluateInto(i, out) }).toEqual(ev.evaluate(i));
       }
     }
   });
