@@ -10,7 +10,8 @@ import { dbCli, ROOT, startMailboxProcess, startWebServer, startWorker, type Run
 import { E2E_ENV, E2E_PORT } from './env';
 
 export default async function setup() {
-  if (!existsSync(resolve(ROOT, 'build/index.js'))) throw new Error('build/ is missing: run `npx vite build` (npm test does)');
+  const build = process.env.LOFTWISE_BUILD_DIR ?? 'build';
+  if (!existsSync(resolve(ROOT, build, 'index.js'))) throw new Error(`${build}/ is missing: run \`npx vite build\` (npm test does)`);
   if (!existsSync('/usr/bin/chromium')) throw new Error('/usr/bin/chromium is missing: apt-get install -y chromium (npm test does)');
   execFileSync('bash', ['docker/services.sh', 'start'], { cwd: ROOT, stdio: 'inherit' });
   dbCli('reset', E2E_ENV);

@@ -72,7 +72,10 @@ function running(child: ChildProcess): Running {
 /** Starts the production build (`node build/index.js`) and waits until it answers. */
 export async function startWebServer(port: number, env: Env): Promise<Running & { url: string }> {
   const url = `http://127.0.0.1:${port}`;
-  const child = spawnLogged(`web-${port}`, process.execPath, ['build/index.js'], {
+  // LOFTWISE_BUILD_DIR (relative to the repo, e.g. .data/build-copy) runs a copy of a build, so a
+  // rebuild of build/ by someone else in the same tree does not pull files from under a running suite.
+  const entry = process.env.LOFTWISE_BUILD_DIR ? `${process.env.LOFTWISE_BUILD_DIR}/index.js` : 'build/index.js';
+  const child = spawnLogged(`web-${port}`, process.execPath, [entry], {
     HOST: '127.0.0.1',
     PORT: String(port),
     ORIGIN: url,
