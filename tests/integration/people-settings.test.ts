@@ -104,4 +104,31 @@ describe('settings through the built server', () => {
     expect((await action(cookie, 'revokeToken', { id: String(row.id) }, 'text/html')).status).toBe(303);
     expect((await api()).status).toBe(401);
   });
+
+  it('lets an admin rename a workspace and edit its notes, and refuses a viewer', async () => {
+    const ws = await Workspace.create({ name: `Rename me ${tag}`, slug: `rename-${tag}`, description: 'old notes' });
+    try {
+      await Membership.create({ userId, workspaceId: ws.id, role: 'admin' });
+      const cookie = await signInCookie(server.url, email, 'second-password-2');
+      const post = (body: Record<string, string>, accept = 'text/html') =>
+        fetch(`${server.url}/w/${ws.slug}/settings`, {
+          method: 'POST',
+          redirect: 'manual',
+          headers: { cookie, origin: server.url, accept, 'content-type': 'application/x-www-form-urlencoded', ...(accept === 'application/json' ? { 'x-sveltekit-action': 'true' } : {}) },
+          body: new URLSearchParams(body)
+        });
+      const blank = await (await post({ name: '  ', description: 'x' }, 'application/json')).json();
+      expect(blank).toMatchObject({ type: 'failure', status: 400 });
+      expect(blank.data).toContain('Enter a name');
+      expect((await post({ name: `Renamed ${tag}`, description: 'Trades for a new upper stage.' })).status).toBe(303);
+      const after = (await Workspace.findByPk(ws.id))!;
+      expect([after.name, after.description, after.slug]).toEqual([`Renamed ${tag}`, 'Trades for a new upper stage.', `rename-${tag}`]);
+
+      await Membership.update({ role: 'viewer' }, { where: { userId, workspaceId: ws.id } });
+      expect((await post({ name: 'Viewer was here', description: '' })).status).toBe(403);
+      expect((await Workspace.findByPk(ws.id))!.name).toBe(`Renamed ${tag}`);
+    } finally {
+      await ws.destroy();
+    }
+  });
 });
