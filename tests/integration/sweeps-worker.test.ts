@@ -12,6 +12,8 @@ import { closeComputeThreads, evaluateChunkInThread } from '../../src/lib/server
 import { closeRawPool, withConnection } from '../../src/lib/server/sweeps/pool';
 import { createSweep } from '../../src/lib/server/sweeps/service';
 import { sweepChunk } from '../../jobs/processors/sweeps';
+import { caseDetail } from '../../src/lib/server/sweeps/cases';
+import { EXAMPLE_ASCENT_INPUT } from '../../src/lib/sweep/examples';
 import { localsFor, newStudy, sizingSpec, sweepRow } from './sweeps-support';
 
 function fakeJob(data: JobPayloads['sweepChunk'], attemptsMade: number): Job<JobPayloads['sweepChunk']> {
@@ -73,5 +75,23 @@ describe('sweep chunk processor', () => {
     // A second delivery of the same chunk adds nothing.
     expect(await sweepChunk(fakeJob({ sweepId: s.id, gen: 0, chunk: 0 }, 0))).toMatchObject({ outcome: 'duplicate' });
     expect((await sweepRow(s.id)).doneCases).toBe(s.chunks.size);
+  });
+
+  it('recomputes an ascent-mode case with its trajectory on demand (nothing stored)', async () => {
+    const engineer = await localsFor('engineer@tarnwick.example');
+    const study = await newStudy('small-launcher');
+    const s = await createSweep(engineer, { studyId: study.id, spec: EXAMPLE_ASCENT_INPUT, start: false });
+    const d = await caseDetail(await sweepRow(s.id), 0);
+    expect(d.stored).toBeNull();
+    expect(d.evaluation?.feasible).toBe(true);
+    const t = d.trajectory!;
+    expect(t.time.length).toBeGreaterThan(50);
+    // Non-decreasing time (a staging event repeats its instant), ending at the last burn-out.
+    for (let i = 1; i < t.time.length; i++) expect(t.time[i]).toBeGreaterThanOrEqual(t.time[i - 1]);
+    expect(t.time.at(-1)!).toBeGreaterThan(60);
+    // The re-flight reaches the evaluated burn-out (the case's targeted 500 km orbit).
+    expect(t.check.consistent).toBe(true);
+    expect(t.altitude.at(-1)!).toBeCloseTo(d.evaluation!.detail!.ascent!.burnoutAltitude, -3);
+    expect(Math.max(...t.dynamicPressure)).toBeCloseTo(d.evaluation!.values.maxDynamicPressure!, -2);
   });
 });

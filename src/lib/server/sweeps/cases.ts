@@ -9,6 +9,8 @@ import type { Sweep } from '../db/models';
 import { evaluateOne, prepareSweep, type PreparedSweep } from './engine';
 import { InputError, parseOr400 } from './http';
 import { caseRow } from './results';
+import { ascentTrajectory } from './trajectory';
+import type { SweepSpec } from '../../sweep/spec';
 import { validateSpec } from './service';
 
 // Prepared sweeps (plans, Latin-hypercube permutations) of recently opened sweeps.
@@ -47,9 +49,18 @@ export async function caseDetail(sweep: Sweep, index: number) {
     /** The case re-evaluated now: params, budget terms, stage masses, reasons. */
     evaluation,
     evaluationError,
-    /** Ascent mode: the trajectory, recomputed on demand (not yet: see the report). */
-    trajectory: null
+    /** Ascent mode: the trajectory, re-flown on demand, with its check against the evaluation. */
+    trajectory: evaluation ? safeTrajectory(sweep.spec as SweepSpec, evaluation) : null
   };
+}
+
+function safeTrajectory(spec: SweepSpec, e: ReturnType<typeof evaluateOne>) {
+  try {
+    return ascentTrajectory(spec, e.detail, e.values.payloadMass);
+  } catch {
+    // A vehicle the core refuses to fly (RangeError) has no trajectory to show.
+    return null;
+  }
 }
 
 export const evaluateSchema = z.object({
@@ -69,5 +80,6 @@ export function previewCase(body: unknown) {
   }
   if (input.caseIndex >= p.plan.total)
     throw new InputError('Invalid input', { caseIndex: `caseIndex must be below ${p.plan.total} (the number of cases)` });
-  return { total: p.plan.total, ...evaluateOne(p, input.caseIndex) };
+  const one = evaluateOne(p, input.caseIndex);
+  return { total: p.plan.total, ...one, trajectory: safeTrajectory(spec, one) };
 }
