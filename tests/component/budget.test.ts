@@ -45,4 +45,28 @@ describe('budgetLines', () => {
     );
     expect(explicit.find((l) => l.key === 'gravityLoss')).toMatchObject({ value: 1400, origin: 'allowance', note: 'user allowance' });
   });
+
+  it('reads the sweep evaluator’s detail shape: terms on detail.budget, its total, the correlation origin', () => {
+    const term = (value: number, origin: string) => ({ value, origin, note: '' });
+    const detail = {
+      budget: {
+        insertionSpeed: term(7600, 'computed'),
+        gravityLoss: term(1500, 'correlation'),
+        dragLoss: term(100, 'correlation'),
+        steeringLoss: term(300, 'allowance'),
+        rotationAssist: term(-280, 'computed'),
+        transfer: term(0, 'computed'),
+        planeChange: term(0, 'computed'),
+        reserve: term(50, 'computed'),
+        total: 9270
+      }
+    };
+    const lines = budgetLines({ values: {}, detail }, { mode: 'budget' });
+    expect(lines).toHaveLength(8);
+    expect(lines.find((l) => l.key === 'gravityLoss')!.origin).toBe('correlation');
+    expect(lines.find((l) => l.key === 'rotationAssist')!.value).toBe(-280);
+    expect(lines.find((l) => l.key === 'reserveDeltaV')!.value).toBe(50);
+    expect(budgetTotal(lines, { values: {}, detail })).toBe(9270);
+    expect(lines.reduce((s, l) => s + l.value, 0)).toBe(9270);
+  });
 });

@@ -8,7 +8,7 @@
 // eslint-disable-next-line @typescript-eslint/no-explicit-any
 type Any = any;
 
-export type TermOrigin = 'computed' | 'allowance' | 'simulated';
+export type TermOrigin = 'computed' | 'allowance' | 'correlation' | 'simulated';
 
 export interface BudgetLine {
   key: string;
@@ -31,7 +31,8 @@ const ORDER: { key: string; alt: string[]; label: string; loss?: 'gravity' | 'dr
 ];
 
 export function budgetLines(result: Any, spec: Any): BudgetLine[] {
-  const terms = result?.detail?.budget?.terms ?? result?.budget?.terms ?? result?.detail?.terms ?? null;
+  const b = result?.detail?.budget ?? result?.budget ?? null;
+  const terms = b?.terms ?? (b && typeof b === 'object' ? b : null);
   const out: BudgetLine[] = [];
   for (const t of ORDER) {
     let raw: Any = null;
@@ -61,6 +62,8 @@ export function budgetLines(result: Any, spec: Any): BudgetLine[] {
 }
 
 export function budgetTotal(lines: BudgetLine[], result: Any): number {
+  const t = result?.detail?.budget?.total;
+  if (typeof t === 'number' && Number.isFinite(t)) return t;
   const v = result?.values?.requiredDeltaV;
   return typeof v === 'number' && Number.isFinite(v) ? v : lines.reduce((s, l) => s + l.value, 0);
 }
@@ -68,5 +71,6 @@ export function budgetTotal(lines: BudgetLine[], result: Any): number {
 export const ORIGIN_LABELS: Record<string, string> = {
   computed: 'computed',
   allowance: 'allowance',
+  correlation: 'allowance (loss correlation)',
   simulated: 'simulated'
 };

@@ -145,7 +145,15 @@ export const REASON_LABELS: Record<string, string> = {
   STRUCTURAL_COEFFICIENT_UNUSUAL: 'structural coefficient unusual',
   MASS_RATIO_INVALID: 'mass ratio out of range',
   NON_FINITE_RESULT: 'no finite result',
-  EVALUATION_FAILED: 'evaluation failed'
+  EVALUATION_FAILED: 'evaluation failed',
+  ISP_ORDER_INVALID: 'sea-level Isp above vacuum Isp',
+  MODEL_INPUT_OUT_OF_RANGE: 'a value is outside the model',
+  ASCENT_TARGET_OUT_OF_RANGE: 'target outside the ascent model',
+  ASCENT_DELTA_V_INSUFFICIENT: 'cannot reach orbit even without payload',
+  ASCENT_TARGET_UNREACHABLE: 'ascent cannot reach the target',
+  ASCENT_FELL_BACK: 'ascent falls back',
+  ASCENT_TARGETING_FAILED: 'ascent targeting did not converge',
+  ASCENT_SIZING_NOT_CONVERGED: 'ascent sizing did not converge'
 };
 
 export function reasonLabel(code: string): string {
