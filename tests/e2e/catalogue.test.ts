@@ -7,6 +7,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { launchBrowser, newContext, screenshot, signIn } from './helpers';
+// The e2e project's environment points these at the browser suite's own database.
+import { sequelize } from '../../src/lib/server/db/sequelize';
+import { CatalogueEntry } from '../../src/lib/server/db/models';
 
 const HEAD = 'name,propellants,isp_sl_s,isp_vac_s,thrust_n,mass_kg,notes';
 const csvFile = (name: string, rows: string[]) => ({ name, mimeType: 'text/csv', buffer: Buffer.from([HEAD, ...rows].join('\n') + '\n') });
@@ -19,6 +22,9 @@ describe('propulsion catalogue in a real browser', () => {
   });
   afterAll(async () => {
     await browser?.close();
+    // Leave the demo catalogue as seeded for the other browser suites.
+    await CatalogueEntry.destroy({ where: { name: ['Gorse G-1', 'Heath H-2', 'Ling L-5'] } });
+    await sequelize.close();
   });
 
   it('refuses a CSV with one bad row, naming the row and column, and imports nothing', async () => {

@@ -7,6 +7,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { BASE_URL, launchBrowser, newContext, screenshot, signIn } from './helpers';
+// The e2e project's environment points these at the browser suite's own database.
+import { Op } from 'sequelize';
+import { sequelize } from '../../src/lib/server/db/sequelize';
+import { User } from '../../src/lib/server/db/models';
 
 describe('invite a member through the outbox', () => {
   let browser: Browser;
@@ -15,6 +19,9 @@ describe('invite a member through the outbox', () => {
   });
   afterAll(async () => {
     await browser?.close();
+    // Leave the demo workspace's members as seeded for the other browser suites.
+    await User.destroy({ where: { email: { [Op.like]: 'newcomer-%@tarnwick.example' } } });
+    await sequelize.close();
   });
 
   it('admin invites, the e-mail arrives, the new member accepts and signs in', async () => {
