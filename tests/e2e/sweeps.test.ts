@@ -106,6 +106,41 @@ describe('sweeps in a real browser', () => {
     await page.goto(`${sweepUrl}/compare?i=${caseNo},0,1`);
     expect(await page.getByTestId('compare-table').locator('thead th').count()).toBe(4);
     await screenshot(page, 'compare');
+
+    // Clone: the builder opens with the frozen spec and the same case count.
+    await page.goto(sweepUrl);
+    await Promise.all([page.waitForURL(/\/sweeps\/new\?clone=\d+$/), page.getByRole('link', { name: 'Clone' }).click()]);
+    expect(await page.locator('#f-name').inputValue()).toBe('Structure and T/W, small grid (copy)');
+    await expect.poll(() => text(page, 'case-count')).toBe('45');
+  });
+
+  it('the server checks the spec with the same schema and names the field', async () => {
+    const ctx = await newContext(browser);
+    const page = await ctx.newPage();
+    await signIn(page, 'engineer@tarnwick.example');
+    // The spec of the sweep just run, made invalid the way a hand-edited file would be.
+    const id = sweepUrl.split('/').pop();
+    const sweep = await (await ctx.request.get(`/api/sweeps/${id}`)).json();
+    const spec = structuredClone(sweep.spec);
+    spec.baseline.stages[0].propulsion.ispVacuum = 100; // below its sea-level Isp
+    const res = await ctx.request.post(`/w/${WS}/sweeps/new?/create`, {
+      form: { studyId: sweep.studyId, spec: JSON.stringify(spec), intent: 'run' },
+      headers: { origin: BASE_URL, accept: 'application/json', 'x-sveltekit-action': 'true' }
+    });
+    const body = await res.json();
+    expect(body.type).toBe('failure');
+    expect(body.status).toBe(400);
+    // SvelteKit serialises action data with devalue; the message and its field key are in it.
+    expect(body.data).toContain('baseline.stages.0.propulsion.ispVacuum');
+    expect(body.data).toContain('vacuum Isp must be at least the sea-level Isp');
+    const before = (await (await ctx.request.get(`/api/sweeps?workspace=${WS}&limit=200`)).json()).total;
+    const notJson = await ctx.request.post(`/w/${WS}/sweeps/new?/create`, {
+      form: { studyId: sweep.studyId, spec: '{ not json', intent: 'run' },
+      headers: { origin: BASE_URL, accept: 'application/json', 'x-sveltekit-action': 'true' }
+    });
+    expect((await notJson.json()).data).toContain('the specification is not valid JSON');
+    const after = (await (await ctx.request.get(`/api/sweeps?workspace=${WS}&limit=200`)).json()).total;
+    expect(after).toBe(before);
   });
 
   it('the engineer shares the report, and the link opens it signed out and shows nothing else', async () => {
