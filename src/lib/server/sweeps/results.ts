@@ -268,18 +268,9 @@ export async function front(sweep: Sweep) {
       );
       candidates = rows.length;
     } else {
-      // The candidates' objective values from the narrow marks table; full rows for the winners.
-      const cand = (await conn.query(
-        { sql: `SELECT case_index, ${objectives.map((_, j) => `o${j + 1}`).join(', ')} FROM sweep_front_marks WHERE sweep_id = ?`, rowsAsArray: true },
-        [sweep.id]
-      )) as (number | null)[][];
-      candidates = cand.length;
-      const members: FrontMember[] = [];
-      for (const r of cand) {
-        const values = r.slice(1).map((v) => (v === null ? NaN : Number(v)));
-        if (values.every(Number.isFinite)) members.push({ index: Number(r[0]), values });
-      }
-      const merged = mergeFronts([], members, directions).slice(0, FRONT_LIMIT + 1);
+      const live = await liveFront(conn, sweep, objectives.length, directions);
+      candidates = live.candidates;
+      const merged = live.members.slice(0, FRONT_LIMIT + 1);
       rows = [];
       for (let k = 0; k < merged.length; k += 1000) {
         const ids = merged.slice(k, k + 1000).map((m) => m.index);
@@ -302,6 +293,68 @@ export async function front(sweep: Sweep) {
       cases: rows.slice(0, FRONT_LIMIT).map((r) => toCaseRow(r, dims))
     };
   });
+}
+
+/**
+ * The merged live front of a running sweep, kept per process and grown incrementally: each call
+ * reads the chunk ledger, then only the marks of chunks not merged yet (a chunk's marks commit
+ * with its ledger row, so a listed chunk's marks are all there). A poll with no new chunk costs
+ * one ledger read; a fresh process merges everything once.
+ */
+interface LiveEntry {
+  merged: Set<number>;
+  members: FrontMember[];
+  candidates: number;
+}
+const liveFronts = new Map<string, LiveEntry>();
+
+/** Forgets the merged live fronts (benchmarks measure the cold path with it). */
+export function clearLiveFronts() {
+  liveFronts.clear();
+}
+
+async function liveFront(conn: PoolConnection, sweep: Sweep, m: number, directions: ('min' | 'max')[]) {
+  const key = `${sweep.id}-${new Date(sweep.createdAt).getTime()}`;
+  let entry = liveFronts.get(key);
+  const chunks = ((await conn.query({ sql: 'SELECT chunk_index FROM sweep_chunks WHERE sweep_id = ?', rowsAsArray: true }, [sweep.id])) as number[][]).map((r) => Number(r[0]));
+  const fresh = entry ? chunks.filter((c) => !entry!.merged.has(c)) : chunks;
+  if (!entry || fresh.length) {
+    const cols = Array.from({ length: m }, (_, j) => `o${j + 1}`).join(', ');
+    let rows: (number | null)[][];
+    if (!entry || fresh.length > 200) {
+      rows = await conn.query({ sql: `SELECT case_index, ${cols} FROM sweep_front_marks WHERE sweep_id = ?`, rowsAsArray: true }, [sweep.id]);
+    } else {
+      // Contiguous chunk runs → case-index ranges (chunk c holds cases c·size ≤ i < (c+1)·size).
+      fresh.sort((a, b) => a - b);
+      const ranges: [number, number][] = [];
+      for (const c of fresh) {
+        const last = ranges.at(-1);
+        if (last && last[1] === c - 1) last[1] = c;
+        else ranges.push([c, c]);
+      }
+      rows = await conn.query(
+        {
+          sql: `SELECT case_index, ${cols} FROM sweep_front_marks WHERE sweep_id = ? AND (${ranges.map(() => 'case_index BETWEEN ? AND ?').join(' OR ')})`,
+          rowsAsArray: true
+        },
+        [sweep.id, ...ranges.flatMap(([a, b]) => [a * sweep.chunkSize, (b + 1) * sweep.chunkSize - 1])]
+      );
+    }
+    const incoming: FrontMember[] = [];
+    for (const r of rows) {
+      const values = r.slice(1).map((v) => (v === null ? NaN : Number(v)));
+      if (values.every(Number.isFinite)) incoming.push({ index: Number(r[0]), values });
+    }
+    const full = !entry || fresh.length > 200;
+    entry = {
+      merged: new Set(chunks),
+      members: mergeFronts(full ? [] : entry!.members, incoming, directions),
+      candidates: (full ? 0 : entry!.candidates) + incoming.length
+    };
+    if (liveFronts.size >= 32) liveFronts.delete(liveFronts.keys().next().value!);
+    liveFronts.set(key, entry);
+  }
+  return entry;
 }
 
 // ---------------------------------------------------------------------------------------------
