@@ -114,6 +114,35 @@ describe('sweeps in a real browser', () => {
     await expect.poll(() => text(page, 'case-count')).toBe('45');
   });
 
+  it('an engineer pauses, resumes and cancels a long sweep while its progress updates', async () => {
+    const page = await (await newContext(browser)).newPage();
+    await signIn(page, 'engineer@tarnwick.example');
+    await page.goto(`/w/${WS}/sweeps/new`);
+    await page.locator('#f-name').fill('Long sampled sweep');
+    await page.getByLabel('Latin hypercube sample').check();
+    await page.getByLabel('Samples').fill('400000');
+    await expect.poll(() => text(page, 'case-count')).toBe('400,000');
+    await expect.poll(() => text(page, 'time-estimate')).toMatch(/^about \d+ s$/);
+    await Promise.all([page.waitForURL(/\/sweeps\/\d+$/), page.getByRole('button', { name: 'Create and run' }).click()]);
+
+    await page.getByRole('button', { name: 'Pause' }).click();
+    await waitForStatus(page, 'paused', 20_000);
+    const pausedAt = await text(page, 'progress-text');
+    await screenshot(page, 'sweep-paused');
+    await page.getByRole('button', { name: 'Resume' }).click();
+    await page.getByTestId('sweep-status').filter({ hasText: /queued|running|completed/ }).first().waitFor({ timeout: 20_000 });
+    // Progress moves on after the resume (or the sweep finished meanwhile).
+    await expect
+      .poll(async () => (await text(page, 'progress-text')) !== pausedAt || (await text(page, 'sweep-status')) === 'completed', { timeout: 30_000 })
+      .toBe(true);
+    const status = await text(page, 'sweep-status');
+    if (status !== 'completed') {
+      await page.getByRole('button', { name: 'Cancel sweep' }).click();
+      await waitForStatus(page, 'cancelled', 20_000);
+      expect(await page.getByRole('button', { name: 'Pause' }).count()).toBe(0);
+    }
+  });
+
   it('the server checks the spec with the same schema and names the field', async () => {
     const ctx = await newContext(browser);
     const page = await ctx.newPage();
