@@ -11,6 +11,7 @@ import { CatalogueEntry, Membership, User, Workspace } from '../../src/lib/serve
 import * as catalogue from '../../src/lib/server/catalogue';
 import { createToken } from '../../src/lib/server/tokens';
 import { DEMO_CATALOGUE } from '../../src/lib/server/db/seed-catalogue';
+import type { CatalogueEntry as CatalogueEntryT } from '../../src/lib/schemas/catalogue';
 import { signInCookie, startWebServer, type Running } from '../helpers/processes';
 
 const tag = randomUUID().slice(0, 8);
@@ -109,6 +110,20 @@ describe('through the built server', () => {
     expect((await get(heavy.id)).status).toBe(404);
     expect((await get(randomUUID())).status).toBe(404);
     expect((await get(smallLauncher.id, {})).status).toBe(401);
+  });
+
+  it('exports the catalogue as CSV that imports back into another workspace unchanged', async () => {
+    const cookie = await signInCookie(server.url, 'viewer@tarnwick.example');
+    const res = await fetch(`${server.url}/w/small-launcher/catalogue/export.csv`, { headers: { cookie } });
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-type')).toBe('text/csv; charset=utf-8');
+    const text = await res.text();
+    const copy = await workspace();
+    expect(await catalogue.importCsv(copy.id, text)).toEqual({ ok: true, imported: DEMO_CATALOGUE['small-launcher'].length });
+    const strip = ({ id: _i, workspaceId: _w, createdAt: _c, updatedAt: _u, ...e }: CatalogueEntryT) => e;
+    expect((await catalogue.list(copy.id)).map(strip)).toEqual((await catalogue.list(smallLauncher.id)).map(strip));
+    // Not a member of heavy-concepts: no export either.
+    expect((await fetch(`${server.url}/w/heavy-concepts/catalogue/export.csv`, { headers: { cookie } })).status).toBe(404);
   });
 
   it("refuses a viewer's forged form posts and shows the viewer no editing controls", async () => {

@@ -160,6 +160,16 @@ export function parseCatalogueCsv(text: string): CsvResult {
   return errors.length ? { entries: [], rows: [], errors } : { entries, rows: entryRows, errors };
 }
 
+/** Entries → CSV in the import format (SI columns), so an export imports back unchanged. */
+export function catalogueToCsv(entries: readonly CatalogueEntryInput[]): string {
+  return (
+    Papa.unparse({
+      fields: ['name', 'propellants', 'isp_sl_s', 'isp_vac_s', 'thrust_n', 'mass_kg', 'notes'],
+      data: entries.map((e) => [e.name, e.propellants, e.ispSeaLevelS ?? '', e.ispVacuumS, e.thrustVacuumN, e.massKg, e.notes])
+    }) + '\r\n'
+  );
+}
+
 // Stands in for an unparsable vacuum Isp so the other fields still get checked.
 const ISP_PLACEHOLDER = 300;
 

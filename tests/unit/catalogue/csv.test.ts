@@ -5,7 +5,7 @@
  * 0.45359237 kg/lb); the Isp bounds and "sea-level Isp below vacuum Isp" are common practice.
  */
 import { describe, expect, it } from 'vitest';
-import { CSV_MAX_ROWS, CSV_TEMPLATE, describeRowError, parseCatalogueCsv } from '../../../src/lib/catalogue/csv';
+import { CSV_MAX_ROWS, CSV_TEMPLATE, catalogueToCsv, describeRowError, parseCatalogueCsv } from '../../../src/lib/catalogue/csv';
 
 const HEAD = 'name,propellants,isp_sl_s,isp_vac_s,thrust_n,mass_kg,notes';
 const csv = (...rows: string[]) => [HEAD, ...rows].join('\n') + '\n';
@@ -99,5 +99,19 @@ describe('parseCatalogueCsv', () => {
     expect(parseCatalogueCsv('PK\u0003\u0004\u0000\u0000').errors[0].message).toBe('The file is not a text CSV file');
     const many = Array.from({ length: CSV_MAX_ROWS + 1 }, (_, i) => `E${i},LOX/RP-1,290,320,850000,1100,`);
     expect(parseCatalogueCsv(csv(...many)).errors[0].message).toContain(`at most ${CSV_MAX_ROWS}`);
+  });
+});
+
+describe('catalogueToCsv', () => {
+  it('writes the import format, quoting where needed, and reads back to the same entries', () => {
+    const entries = [
+      { name: 'Alder, "A"', propellants: 'LOX/RP-1', ispSeaLevelS: 290.5, ispVacuumS: 320, thrustVacuumN: 850123.25, massKg: 1100, notes: 'line one\nline two' },
+      { name: 'Birch', propellants: 'LOX/LH2', ispSeaLevelS: null, ispVacuumS: 450, thrustVacuumN: 1e5, massKg: 300, notes: '' }
+    ];
+    const text = catalogueToCsv(entries);
+    expect(text.split('\r\n')[0]).toBe('name,propellants,isp_sl_s,isp_vac_s,thrust_n,mass_kg,notes');
+    const back = parseCatalogueCsv(text);
+    expect(back.errors).toEqual([]);
+    expect(back.entries).toEqual(entries);
   });
 });
