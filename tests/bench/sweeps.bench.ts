@@ -245,6 +245,7 @@ if (!reused) {
   await big.update({ feasibleCases: feasible });
   out('generated 1,000,000 rows with batch()', `${fmt((performance.now() - t) / 1000, 1)} s (${fmt((bigN / (performance.now() - t)) * 1000)} rows/s)`);
 }
+if (!big) throw new Error('the 1M-case sweep is missing');
 {
   const cols = ['glow', 'dry_mass', 'total_losses'];
   let t = performance.now();
