@@ -24,6 +24,8 @@ export interface Mail {
   subject: string;
   text: string;
   html?: string;
+  /** Extra headers, e.g. the workspace a message belongs to (read back by the outbox). */
+  headers?: Record<string, string>;
 }
 
 export async function sendMail(mail: Mail) {
