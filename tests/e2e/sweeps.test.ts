@@ -47,6 +47,8 @@ describe('sweeps in a real browser', () => {
     await page.getByRole('main').getByRole('link', { name: 'New sweep' }).first().click();
     await page.waitForURL(/\/sweeps\/new\?study=/);
     await page.locator('#f-name').fill('Structure and T/W, small grid');
+    // The question starts as the study's.
+    expect(await page.getByLabel('Question this sweep answers').inputValue()).toBe('How light can the two-stage launcher get with better structures?');
     await expect.poll(() => text(page, 'case-count')).toBe('75');
     await expect.poll(() => text(page, 'preview-glow'), { timeout: 15_000 }).toMatch(/\d[\d,]* kg/);
 
@@ -194,6 +196,7 @@ describe('sweeps in a real browser', () => {
     await anon.goto(shareUrl);
     expect(new URL(anon.url()).pathname).toMatch(/^\/share\//);
     expect(await anon.getByTestId('report-title').textContent()).toBe('Structure and T/W, small grid');
+    expect(await text(anon, 'report-question')).toBe('How light can the two-stage launcher get with better structures?');
     expect(await text(anon, 'caution')).toContain(CAUTION);
     await anon.locator('[data-testid="pareto-plot"] .apexcharts-canvas').waitFor();
     // Nothing else: no links into the app, and the app itself still asks for a sign-in.

@@ -59,6 +59,8 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
     studyId ||= sweep.studyId;
   }
   if (!studies.some((s) => s.id === studyId)) studyId = studies[0]?.id ?? '';
+  // A new sweep starts from its study's question.
+  if (!clonedFrom) (spec as { question: string }).question = studies.find((s) => s.id === studyId)?.question ?? '';
   return {
     ...access,
     units: locals.user!.units,
