@@ -177,6 +177,23 @@ describe('studies and sweeps over HTTP', () => {
     expect(bad.body.errors['spec.objectives']).toBeTruthy();
   });
 
+  it('deletes a sweep with its cases (owner or admin, not while queued or running; viewer 403)', async () => {
+    const d = await call('/api/sweeps', { as: 'engineer', method: 'POST', body: { studyId, spec: sizingSpec(300, 'to delete') } });
+    const id = d.body.id;
+    await waitFor('the sweep to complete', async () => (await call(`/api/sweeps/${id}`, { as: 'engineer' })).body.status === 'completed', 30_000, 200);
+    expect((await call(`/api/sweeps/${id}`, { as: 'viewer', method: 'DELETE' })).status).toBe(403);
+    expect((await call(`/api/sweeps/${id}`, { as: 'engineer', method: 'DELETE' })).status).toBe(200);
+    expect((await call(`/api/sweeps/${id}`, { as: 'engineer' })).status).toBe(404);
+    const [left] = await withConnection((c) =>
+      c.query(
+        `SELECT (SELECT COUNT(*) FROM sweep_cases WHERE sweep_id = ?) AS cases, (SELECT COUNT(*) FROM sweep_chunks WHERE sweep_id = ?) AS chunks,
+                (SELECT COUNT(*) FROM sweep_front_marks WHERE sweep_id = ?) AS marks`,
+        [id, id, id]
+      )
+    );
+    expect([Number(left.cases), Number(left.chunks), Number(left.marks)]).toEqual([0, 0, 0]);
+  });
+
   it('personal API tokens: created from a session, used as Bearer, revoked', async () => {
     const t = await call('/api/tokens', { as: 'engineer', method: 'POST', body: { name: 'script' } });
     expect(t.status).toBe(201);

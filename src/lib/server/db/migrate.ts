@@ -14,6 +14,7 @@ import * as m0011 from './migrations/2026-12-01-0011-sweep-cases';
 import * as m0012 from './migrations/2026-12-01-0012-sweep-chunks-no-fk';
 import * as m0013 from './migrations/2026-12-01-0013-sweep-case-columns';
 import * as m0014 from './migrations/2026-12-01-0014-sweep-front-marks';
+import * as m0015 from './migrations/2026-12-01-0015-drop-chunk-front-index';
 import * as m0020 from './migrations/2026-12-01-0020-invites';
 import * as m0021 from './migrations/2026-12-01-0021-catalogue';
 
@@ -27,6 +28,7 @@ const MIGRATIONS: { name: string; up: Step; down: Step }[] = [
   { name: '2026-12-01-0012-sweep-chunks-no-fk', ...m0012 },
   { name: '2026-12-01-0013-sweep-case-columns', ...m0013 },
   { name: '2026-12-01-0014-sweep-front-marks', ...m0014 },
+  { name: '2026-12-01-0015-drop-chunk-front-index', ...m0015 },
   { name: '2026-12-01-0020-invites', ...m0020 },
   { name: '2026-12-01-0021-catalogue', ...m0021 }
 ];
