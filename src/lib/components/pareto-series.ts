@@ -1,0 +1,70 @@
+/**
+ * The point sets of the Pareto plot, in display units: infeasible cases, feasible cases off
+ * the front (optionally coloured by a third quantity), and the front sorted along the x axis.
+ * A case without a finite value on either axis is left out (failed cases, n/a columns).
+ */
+import type { UnitSystem } from '$lib/units';
+import { metricInfo, toUnits } from './quantities';
+
+export interface PlotCase {
+  caseIndex: number;
+  feasible: boolean;
+  failed?: boolean;
+  paretoRank: number | null;
+  values: Record<string, number | null>;
+}
+
+export type PlotPoint = { x: number; y: number; caseIndex: number; fillColor?: string };
+
+/** Low → high colours of the third quantity (loft teal to flare orange). */
+export const RAMP = ['#156565', '#1f9d98', '#72d5cf', '#ffc06b', '#fc7c0a', '#b94803'];
+
+export function rampColor(t: number): string {
+  const i = Math.max(0, Math.min(RAMP.length - 1, Math.round(t * (RAMP.length - 1))));
+  return RAMP[i];
+}
+
+export function colorRange(cases: PlotCase[], key: string): { lo: number; hi: number } | null {
+  if (!key) return null;
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const c of cases) {
+    const s = c.values[key];
+    if (s != null && Number.isFinite(s)) {
+      lo = Math.min(lo, s);
+      hi = Math.max(hi, s);
+    }
+  }
+  return Number.isFinite(lo) ? { lo, hi } : null;
+}
+
+export function paretoSeries(cloud: PlotCase[], front: PlotCase[], x: string, y: string, color: string, units: UnitSystem) {
+  const v = (c: PlotCase, key: string) => {
+    const s = c.values[key];
+    return s == null || !Number.isFinite(s) ? null : toUnits(metricInfo(key).kind, s, units);
+  };
+  const range = colorRange([...cloud, ...front], color);
+  const points = (list: PlotCase[], useColor: boolean): PlotPoint[] => {
+    const out: PlotPoint[] = [];
+    for (const c of list) {
+      const px = v(c, x);
+      const py = v(c, y);
+      if (px === null || py === null) continue;
+      const p: PlotPoint = { x: px, y: py, caseIndex: c.caseIndex };
+      if (useColor && range) {
+        const s = c.values[color];
+        if (s != null) p.fillColor = rampColor(range.hi > range.lo ? (s - range.lo) / (range.hi - range.lo) : 0.5);
+      }
+      out.push(p);
+    }
+    return out;
+  };
+  const onFront = new Set(front.map((c) => c.caseIndex));
+  const rest = cloud.filter((c) => !onFront.has(c.caseIndex));
+  return {
+    infeasible: points(rest.filter((c) => !c.feasible), false),
+    feasible: points(rest.filter((c) => c.feasible), true),
+    front: points(front, false).sort((a, b) => a.x - b.x),
+    range
+  };
+}
