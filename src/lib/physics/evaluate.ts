@@ -418,7 +418,7 @@ function clearStages(out: BudgetCaseResult, count: number): void {
  * Evaluate one budget-mode case: delta-v budget, sizing (or payload), feasibility.
  *
  * Formulas: budget total = v_ins + Δv_g + Δv_d + Δv_s − ω·R·cos φ·sin β + Δv_transfer +
- * Δv_plane + reserve (see budget.ts; losses from the correlation a + b/ψ + c·h, d0 + d1·ψ, s when
+ * Δv_plane + reserve (see budget.ts; losses from the correlation a + b/ψ + c·h, d0 + d1·ψ, s + sh·h when
  * not given); sizing by the Lagrange-multiplier optimum (rocket.ts) with m0 = m_L/π; vehicle mode
  * solves Σ c_i·ln(m0_i/(m0_i − mp_i)) = total(ψ(m_L)) for m_L, ψ = T_0/((M + m_L)·G0); max axial
  * acceleration = max_i T_i/(m0_i − mp_i) (vacuum thrust at burn-out, drag neglected).
@@ -432,7 +432,7 @@ function clearStages(out: BudgetCaseResult, count: number): void {
  * const input = createBudgetCaseInput();
  * input.isp.set([300, 345]); input.structuralCoefficient.set([0.07, 0.09]);
  * input.thrustToWeight.set([1.3, 0.9]); input.payloadMass = 5000;
- * evaluateBudgetCase(input).grossMass; // ≈ 1.916e5 kg (direct to 200 km, 28.5°)
+ * evaluateBudgetCase(input).grossMass; // ≈ 1.776e5 kg (direct to 200 km, 28.5°)
  */
 export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult = createBudgetCaseResult()): BudgetCaseResult {
   const k = input.stageCount;
@@ -469,7 +469,9 @@ export function evaluateBudgetCase(input: BudgetCaseInput, out: BudgetCaseResult
   const gb = corr.gravity.b;
   const d0 = corr.drag.d0;
   const d1 = corr.drag.d1;
-  const steer = corrMask & 4 ? (corr.steering.s > 0 ? corr.steering.s : 0) : userS;
+  // Steering-loss correlation s + sh·h (as lossAllowances in budget.ts), or the user's.
+  const steerCorr = corr.steering.s + (corr.steering.sh ?? 0) * h;
+  const steer = corrMask & 4 ? (steerCorr > 0 ? steerCorr : 0) : userS;
   // Orbital part of the budget (independent of the vehicle).
   const orbital = ORBIT.insertionSpeed - orbitAssist + ORBIT.transferDeltaV + ORBIT.planeChangeDeltaV;
 

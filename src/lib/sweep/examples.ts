@@ -62,7 +62,7 @@ export const EXAMPLE_SIZING_INPUT: SweepSpecInput = {
     sampling: { plan: 'grid' }
   },
   mode: 'budget',
-  constraints: { minLiftoffThrustToWeight: 1.25, maxAxialAccelerationG: 6, glowCeiling: 60_000 },
+  constraints: { minLiftoffThrustToWeight: 1.25, maxAxialAccelerationG: 7, glowCeiling: 60_000 },
   objectives: [
     { metric: 'glow', direction: 'min' },
     { metric: 'dryMass', direction: 'min' }
