@@ -18,7 +18,7 @@ ROOT=$(cd "$HERE/.." && pwd)
 DATA_DIR=${DATA_DIR:-$ROOT/.data}
 DB_PORT=${DB_PORT:-3307} DB_USER=${DB_USER:-loftwise} DB_PASS=${DB_PASS:-loftwise_pw}
 DB_NAMES=${DB_NAMES:-loftwise loftwise_test loftwise_e2e loftwise_scratch}
-DB_BUFFER_POOL=${DB_BUFFER_POOL:-512M}
+DB_BUFFER_POOL=${DB_BUFFER_POOL:-1G}
 DB_FLUSH_AT_COMMIT=${DB_FLUSH_AT_COMMIT:-2}   # 1 = fsync per commit; 2 = once a second
 REDIS_PORT=${REDIS_PORT:-6380} WAIT_S=${WAIT_S:-60}
 MY_DIR=$DATA_DIR/mariadb RD_DIR=$DATA_DIR/redis RUN=$DATA_DIR/run LOG=$DATA_DIR/log
