@@ -83,6 +83,14 @@ describe('sweeps in a real browser', () => {
     await page.getByTestId('sensitivity').waitFor();
     await screenshot(page, 'sweep-completed');
 
+    // Clicking a point of the front opens its case.
+    const box = await page.locator('[data-testid="pareto-plot"] .apexcharts-series').last().locator('.apexcharts-marker').first().boundingBox();
+    expect(box).not.toBeNull();
+    await Promise.all([page.waitForURL(/\/cases\/\d+$/), page.mouse.click(box!.x + box!.width / 2, box!.y + box!.height / 2)]);
+    expect(await page.getByTestId('case-feasible').textContent()).toBe('Feasible');
+    await page.goBack();
+    await page.getByTestId('results-table').locator('tbody tr').first().waitFor();
+
     // Server-side sort: rank ascending puts front members (rank 1) first.
     await page.getByTestId('results-table').getByRole('button', { name: 'Rank', exact: true }).click();
     await expect.poll(() => page.locator('[data-testid="results-table"] tbody tr').first().locator('td').nth(1).textContent()).toBe('1');

@@ -16,8 +16,11 @@ export interface PlotCase {
 
 export type PlotPoint = { x: number; y: number; caseIndex: number; fillColor?: string };
 
-/** Low → high colours of the third quantity (loft teal to flare orange). */
-export const RAMP = ['#156565', '#1f9d98', '#72d5cf', '#ffc06b', '#fc7c0a', '#b94803'];
+/**
+ * Low → high colours of the third quantity: light to dark teal, so no colour of the ramp can be
+ * mistaken for the front's orange.
+ */
+export const RAMP = ['#c9ece8', '#8fdad3', '#4fc2bb', '#1f9d98', '#156565', '#0d3a3b'];
 
 export function rampColor(t: number): string {
   const i = Math.max(0, Math.min(RAMP.length - 1, Math.round(t * (RAMP.length - 1))));
