@@ -1,4 +1,6 @@
 import { error, fail, isHttpError, redirect } from '@sveltejs/kit';
+import { Op } from 'sequelize';
+import { Sweep } from '$lib/server/db/models';
 import { requireWorkspace } from '$lib/server/guard';
 import * as catalogue from '$lib/server/catalogue';
 import { ConflictError, InputError } from '$lib/server/sweeps/http';
@@ -38,8 +40,34 @@ function starterSpec(entries: Entry[]) {
   return spec;
 }
 
+/**
+ * Cases per second of this workspace's recent completed sweeps, per mode (the median of up to
+ * ten), for the builder's time estimate; null for a mode with no history.
+ */
+async function recentRates(workspaceId: string): Promise<Record<'budget' | 'ascent', number | null>> {
+  const rows = await Sweep.findAll({
+    where: { workspaceId, status: 'completed', startedAt: { [Op.ne]: null }, finishedAt: { [Op.ne]: null } },
+    order: [['finishedAt', 'DESC']],
+    limit: 40,
+    attributes: ['mode', 'doneCases', 'startedAt', 'finishedAt']
+  });
+  const out: Record<'budget' | 'ascent', number | null> = { budget: null, ascent: null };
+  for (const mode of ['budget', 'ascent'] as const) {
+    // Only sweeps long enough for start-up and ranking not to dominate their rate.
+    const rates = rows
+      .map((r) => ({ mode: r.mode, n: r.doneCases, s: (new Date(r.finishedAt!).getTime() - new Date(r.startedAt!).getTime()) / 1000 }))
+      .filter((r) => r.mode === mode && r.s >= 5 && r.n >= (mode === 'ascent' ? 200 : 20_000))
+      .slice(0, 10)
+      .map((r) => r.n / r.s)
+      .sort((a, b) => a - b);
+    if (rates.length) out[mode] = rates[Math.floor(rates.length / 2)];
+  }
+  return out;
+}
+
 export const load: PageServerLoad = async ({ locals, params, url }) => {
   const access = await requireWorkspace(locals, { slug: params.workspace }, 'engineer');
+  const rates = await recentRates(access.workspace.id);
   const [studies, entries] = await Promise.all([
     listStudies(locals, { workspace: access.workspace.id }),
     catalogue.list(access.workspace.id)
@@ -74,7 +102,8 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
       ispSeaLevel: e.ispSeaLevelS ?? 0,
       ispVacuum: e.ispVacuumS
     })),
-    maxSpecBytes: MAX_SPEC_BYTES
+    maxSpecBytes: MAX_SPEC_BYTES,
+    rates
   };
 };
 
