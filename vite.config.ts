@@ -12,6 +12,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'unit',
+          sequence: { groupOrder: 0 },
           environment: 'node',
           include: ['tests/unit/**/*.test.ts']
         }
@@ -20,6 +21,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'component',
+          sequence: { groupOrder: 0 },
           environment: 'jsdom',
           include: ['tests/component/**/*.test.ts']
         },
@@ -29,6 +31,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'integration',
+          sequence: { groupOrder: 0 },
           environment: 'node',
           env: { LOFTWISE_ENV: 'test' },
           include: ['tests/integration/**/*.test.ts'],
@@ -43,6 +46,9 @@ export default defineConfig({
         extends: true,
         test: {
           name: 'e2e',
+          // After the other projects: the integration suite's workers load both cores, and
+          // browser timings should not compete with them.
+          sequence: { groupOrder: 1 },
           environment: 'node',
           env: { LOFTWISE_ENV: 'test', DB_NAME: 'loftwise_e2e', QUEUE_PREFIX: 'lw-e2e', SMTP_PORT: '2527' },
           include: ['tests/e2e/**/*.test.ts'],
