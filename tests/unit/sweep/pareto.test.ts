@@ -146,3 +146,270 @@ describe('nonDominated and mergeFronts', () => {
     expect(front.map((f) => f.index)).toEqual(expected);
   });
 });
+
+/** Rows whose objectives rise together (many fronts), with a few far-worse rows mixed in. */
+function correlatedData(seed: number, n: number): Float64Array[] {
+  const obj = Array.from({ length: 4 }, () => new Float64Array(n));
+  for (let i = 0; i < n; i++) {
+    const size = uniform01(seed, 6, i, 9) * 10 + (uniform01(seed, 6, i, 8) < 0.05 ? 40 : 0);
+    for (let j = 0; j < 4; j++) obj[j][i] = Math.round((size + uniform01(seed, 6, i, j)) * 20) / 20;
+  }
+  return obj;
+}
+
+describe('four objectives at larger sizes', () => {
+  test('5 seeds × 2 000 points on coarse grids (3–8 levels: ties, duplicates), some non-finite, against the brute force', () => {
+    for (let seed = 1; seed <= 5; seed++) {
+      const n = 2000;
+      const obj = randomData(seed * 104729, n, 4, [3, 5, 8, 5, 4][seed - 1]);
+      for (let i = 0; i < n; i++)
+        if (uniform01(seed, 4, i, 0) < 0.01) obj[i % 4][i] = [NaN, Infinity, -Infinity][i % 3];
+      const include = Uint8Array.from({ length: n }, (_, i) => (uniform01(seed, 4, i, 1) < 0.9 ? 1 : 0));
+      const dirs = DIRECTION_SETS[4][seed % 3];
+      expect(Array.from(paretoRanks(obj, dirs))).toEqual(Array.from(bruteForceRanks(obj, dirs)));
+      expect(Array.from(paretoRanks(obj, dirs, include))).toEqual(Array.from(bruteForceRanks(obj, dirs, include)));
+    }
+  });
+
+  test('an opposed pair (objective 4 falls as objective 3 rises) and correlated sets with many fronts, against the brute force', () => {
+    for (let seed = 1; seed <= 3; seed++) {
+      const opposed = randomData(seed * 31, 1500, 4, seed === 1 ? 0 : 10);
+      for (let i = 0; i < 1500; i++) opposed[3][i] = 7 - 2 * opposed[2][i];
+      const dirs = DIRECTION_SETS[4][0];
+      expect(Array.from(paretoRanks(opposed, dirs))).toEqual(Array.from(bruteForceRanks(opposed, dirs)));
+      const corr = correlatedData(seed, 1500);
+      const ranks = paretoRanks(corr, dirs);
+      expect(Math.max(...ranks)).toBeGreaterThan(50); // many fronts, with gaps between clusters
+      expect(Array.from(ranks)).toEqual(Array.from(bruteForceRanks(corr, dirs)));
+    }
+  });
+
+  test('5 000 points: equals the previous k-d tree method (uniform, 6-level grid, correlated)', () => {
+    const sets: [Float64Array[], Direction[]][] = [
+      [randomData(5001, 5000, 4, 0), DIRECTION_SETS[4][1]],
+      [randomData(5002, 5000, 4, 6), DIRECTION_SETS[4][2]],
+      [correlatedData(5003, 5000), DIRECTION_SETS[4][0]]
+    ];
+    for (const [obj, dirs] of sets) expect(Array.from(paretoRanks(obj, dirs))).toEqual(Array.from(kdTreeRanks(obj, dirs)));
+  });
+
+  test('40 000 points with a constant fourth objective rank as with three (the separate 3-objective method)', () => {
+    for (const levels of [0, 7]) {
+      const obj = randomData(40_000 + levels, 40_000, 3, levels);
+      const dirs: Direction[] = ['min', 'max', 'min'];
+      const four = paretoRanks([...obj, new Float64Array(40_000).fill(2.5)], [...dirs, 'max']);
+      expect(Array.from(four)).toEqual(Array.from(paretoRanks(obj, dirs)));
+      // and reordering the objectives changes nothing
+      const swapped = paretoRanks([obj[2], new Float64Array(40_000).fill(1), obj[0], obj[1]], ['min', 'min', 'min', 'max']);
+      expect(Array.from(swapped)).toEqual(Array.from(four));
+    }
+  });
+});
+
+// ---------------------------------------------------------------------------------------------
+// The previous 4-objective method, kept here verbatim as a second, independent reference at
+// sizes the brute force cannot reach: ENS-BS (Zhang et al., IEEE TEVC 19(2), 2015) with a
+// bucket k-d tree per front (ENS-NDT, Gustavsson & Syberfeldt, Evol. Comput. 26(1), 2018).
+// Only its preparation is simplified (a comparator sort instead of the radix sort).
+
+const BUCKET = 16;
+
+/** A k-d tree node over objectives 1..m−1; leaves hold up to BUCKET sorted-row positions. */
+class KdNode {
+  /** Per-dimension minimum over the subtree (for pruning dominance queries). */
+  readonly min: Float64Array;
+  dim = -1;
+  split = 0;
+  left: KdNode | null = null;
+  right: KdNode | null = null;
+  pts: Int32Array | null = new Int32Array(BUCKET);
+  count = 0;
+  constructor(k: number) {
+    this.min = new Float64Array(k).fill(Infinity);
+  }
+}
+
+/**
+ * One front as a bucket k-d tree on objectives 1..m−1 (objective 0 is ordered by the sort),
+ * after ENS-NDT (Gustavsson & Syberfeldt, "A New Algorithm Using the Non-Dominated Tree to
+ * Improve Non-Dominated Sorting", Evolutionary Computation 26(1), 2018): a query visits only
+ * subtrees whose minimum corner is ≤ p, so fronts that do not dominate p are rejected quickly.
+ */
+class KdFront {
+  private root: KdNode;
+  private last = -1;
+  private readonly k: number;
+  private static stack: KdNode[] = [];
+  constructor(
+    private readonly v: Float64Array,
+    private readonly m: number
+  ) {
+    this.k = m - 1;
+    this.root = new KdNode(this.k);
+  }
+
+  /** Whether sorted row q (before p) dominates row p. */
+  private dom(q: number, p: number): boolean {
+    const m = this.m;
+    const v = this.v;
+    const qm = q * m;
+    const pm = p * m;
+    let strictly = v[qm] < v[pm];
+    for (let j = 1; j < m; j++) {
+      const a = v[qm + j];
+      const b = v[pm + j];
+      if (a > b) return false;
+      if (a < b) strictly = true;
+    }
+    return strictly;
+  }
+
+  dominates(p: number): boolean {
+    if (this.last >= 0 && this.dom(this.last, p)) return true;
+    const v = this.v;
+    const pm = p * this.m;
+    const k = this.k;
+    const stack = KdFront.stack;
+    let top = 0;
+    stack[top++] = this.root;
+    while (top > 0) {
+      const node = stack[--top];
+      const min = node.min;
+      let prune = false;
+      for (let d = 0; d < k; d++)
+        if (min[d] > v[pm + 1 + d]) {
+          prune = true;
+          break;
+        }
+      if (prune) continue;
+      if (node.pts) {
+        const pts = node.pts;
+        for (let i = node.count - 1; i >= 0; i--) if (this.dom(pts[i], p)) return true;
+      } else {
+        // Points on the right have coordinate ≥ split; they cannot be ≤ p when p is below it.
+        if (v[pm + 1 + node.dim] >= node.split) stack[top++] = node.right!;
+        stack[top++] = node.left!;
+      }
+    }
+    return false;
+  }
+
+  insert(p: number): void {
+    this.last = p;
+    const v = this.v;
+    const m = this.m;
+    const k = this.k;
+    const pm = p * m;
+    let node = this.root;
+    for (;;) {
+      const min = node.min;
+      for (let d = 0; d < k; d++) if (v[pm + 1 + d] < min[d]) min[d] = v[pm + 1 + d];
+      if (node.pts) break;
+      node = v[pm + 1 + node.dim] < node.split ? node.left! : node.right!;
+    }
+    if (node.count === node.pts!.length) {
+      if (!this.splitLeaf(node)) {
+        // Every point of the bucket is equal on objectives 1..m−1: grow it instead.
+        const grown = new Int32Array(node.pts!.length * 2);
+        grown.set(node.pts!);
+        node.pts = grown;
+      } else {
+        node = v[pm + 1 + node.dim] < node.split ? node.left! : node.right!;
+        const min = node.min;
+        for (let d = 0; d < k; d++) if (v[pm + 1 + d] < min[d]) min[d] = v[pm + 1 + d];
+      }
+    }
+    node.pts![node.count++] = p;
+  }
+
+  /** Splits a full leaf at the mid-range of its widest dimension; false if all points coincide. */
+  private splitLeaf(node: KdNode): boolean {
+    const v = this.v;
+    const m = this.m;
+    const pts = node.pts!;
+    let bestDim = -1;
+    let bestSpread = 0;
+    let bestLo = 0;
+    let bestHi = 0;
+    for (let d = 0; d < this.k; d++) {
+      let lo = Infinity;
+      let hi = -Infinity;
+      for (let i = 0; i < node.count; i++) {
+        const x = v[pts[i] * m + 1 + d];
+        if (x < lo) lo = x;
+        if (x > hi) hi = x;
+      }
+      if (hi - lo > bestSpread) {
+        bestSpread = hi - lo;
+        bestDim = d;
+        bestLo = lo;
+        bestHi = hi;
+      }
+    }
+    if (bestDim < 0) return false;
+    let split = 0.5 * (bestLo + bestHi);
+    if (!(split > bestLo)) split = bestHi; // rounding: keep both sides non-empty
+    const left = new KdNode(this.k);
+    const right = new KdNode(this.k);
+    for (let i = 0; i < node.count; i++) {
+      const q = pts[i];
+      const child = v[q * m + 1 + bestDim] < split ? left : right;
+      if (child.count === child.pts!.length) {
+        const grown = new Int32Array(child.pts!.length * 2);
+        grown.set(child.pts!);
+        child.pts = grown;
+      }
+      child.pts![child.count++] = q;
+      for (let d = 0; d < this.k; d++) {
+        const x = v[q * m + 1 + d];
+        if (x < child.min[d]) child.min[d] = x;
+      }
+    }
+    node.dim = bestDim;
+    node.split = split;
+    node.left = left;
+    node.right = right;
+    node.pts = null;
+    node.count = 0;
+    return true;
+  }
+}
+
+/** ENS-BS with a k-d tree per front, on rows sorted lexicographically. */
+function rankEns(v: Float64Array, count: number, m: number, ranks: Int32Array, origin: Int32Array): void {
+  const fronts: KdFront[] = [];
+  for (let c = 0; c < count; c++) {
+    let lo = 0;
+    let hi = fronts.length;
+    while (lo < hi) {
+      const k = (lo + hi) >>> 1;
+      if (fronts[k].dominates(c)) lo = k + 1;
+      else hi = k;
+    }
+    if (lo === fronts.length) fronts.push(new KdFront(v, m));
+    fronts[lo].insert(c);
+    ranks[origin[c]] = lo + 1;
+  }
+}
+
+function kdTreeRanks(obj: Float64Array[], dirs: Direction[]): Int32Array {
+  const n = obj[0].length;
+  const m = obj.length;
+  const rows: number[] = [];
+  for (let i = 0; i < n; i++) if (obj.every((o) => Number.isFinite(o[i]))) rows.push(i);
+  const val = (i: number, j: number): number => (dirs[j] === 'max' ? -obj[j][i] : obj[j][i]) + 0;
+  rows.sort((p, q) => {
+    for (let j = 0; j < m; j++) {
+      const d = val(p, j) - val(q, j);
+      if (d !== 0) return d;
+    }
+    return p - q;
+  });
+  const v = new Float64Array(rows.length * m);
+  rows.forEach((i, c) => {
+    for (let j = 0; j < m; j++) v[c * m + j] = val(i, j);
+  });
+  const ranks = new Int32Array(n);
+  rankEns(v, rows.length, m, ranks, Int32Array.from(rows));
+  return ranks;
+}
