@@ -34,7 +34,7 @@ describe('propulsion catalogue in a real browser', () => {
     await page.getByRole('link', { name: 'Propulsion catalogue' }).click();
     await page.waitForURL('**/w/small-launcher/catalogue');
     const before = await rowNames(page);
-    expect(before).toContain('Kestrel K-90');
+    expect(before).toContain('Tallow T-90');
     await screenshot(page, 'catalogue');
 
     await page.getByLabel('CSV file').setInputFiles(
@@ -95,7 +95,7 @@ describe('propulsion catalogue in a real browser', () => {
     const page = await (await newContext(browser)).newPage();
     await signIn(page, 'viewer@tarnwick.example');
     await page.goto('/w/small-launcher/catalogue');
-    expect(await rowNames(page)).toContain('Kestrel K-90');
+    expect(await rowNames(page)).toContain('Tallow T-90');
     for (const name of ['Add entry', 'Import']) expect(await page.getByRole('button', { name }).count()).toBe(0);
     expect(await page.getByRole('link', { name: /^Edit / }).count()).toBe(0);
     expect(await page.getByRole('button', { name: /^Delete / }).count()).toBe(0);
@@ -116,12 +116,12 @@ describe('propulsion catalogue in a real browser', () => {
       const headers = await page.getByTestId('catalogue-table').locator('thead th').allTextContents();
       expect(headers).toContain('Vac. thrust (lbf)');
       expect(headers).toContain('Engine mass (lb)');
-      const k90 = page.getByTestId('catalogue-table').getByRole('row').filter({ has: page.locator('th', { hasText: /^Kestrel K-90$/ }) });
+      const k90 = page.getByTestId('catalogue-table').getByRole('row').filter({ has: page.locator('th', { hasText: /^Tallow T-90$/ }) });
       // 95 000 N / 4.4482216152605 = 21 356.85 lbf; 118 kg / 0.45359237 = 260.15 lb
       expect((await k90.locator('td').allTextContents()).slice(3, 5)).toEqual(['21,357', '260.1']);
       await screenshot(page, 'catalogue-us-units');
 
-      await page.getByRole('link', { name: 'Edit Kestrel K-90', exact: true }).click();
+      await page.getByRole('link', { name: 'Edit Tallow T-90', exact: true }).click();
       expect(await page.getByLabel('Vacuum thrust').inputValue()).toBe('21356.85');
     } finally {
       await page.goto('/settings');

@@ -103,7 +103,7 @@ describe('through the built server', () => {
     const body = await res.json();
     const demo = DEMO_CATALOGUE['small-launcher'];
     expect(body.entries).toHaveLength(demo.length);
-    const k90 = body.entries.find((e: { name: string }) => e.name === 'Kestrel K-90');
+    const k90 = body.entries.find((e: { name: string }) => e.name === 'Tallow T-90');
     expect(k90).toMatchObject({ propellants: 'LOX/RP-1', ispSeaLevelS: 288, ispVacuumS: 312, thrustVacuumN: 95000, massKg: 118 });
 
     // The viewer is not a member of heavy-concepts: same answer as a workspace that does not exist.
@@ -131,7 +131,7 @@ describe('through the built server', () => {
     const page = await fetch(`${server.url}/w/small-launcher/catalogue`, { headers: { cookie } });
     const html = await page.text();
     expect(page.status).toBe(200);
-    expect(html).toContain('Kestrel K-90');
+    expect(html).toContain('Tallow T-90');
     expect(html).not.toContain('?/create');
     expect(html).not.toContain('?/delete');
     expect(html).not.toContain('Import from CSV');

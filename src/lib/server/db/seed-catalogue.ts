@@ -12,7 +12,7 @@ import { CatalogueEntry, type Workspace } from './models';
 export const DEMO_CATALOGUE: Record<string, CatalogueEntryInput[]> = {
   'small-launcher': [
     {
-      name: 'Kestrel K-90',
+      name: 'Tallow T-90',
       propellants: 'LOX/RP-1',
       ispSeaLevelS: 288,
       ispVacuumS: 312,
@@ -21,7 +21,7 @@ export const DEMO_CATALOGUE: Record<string, CatalogueEntryInput[]> = {
       notes: 'Gas-generator cycle, booster cluster engine (9 per first stage).'
     },
     {
-      name: 'Kestrel K-90V',
+      name: 'Tallow T-90V',
       propellants: 'LOX/RP-1',
       ispSeaLevelS: null,
       ispVacuumS: 336,
@@ -39,7 +39,7 @@ export const DEMO_CATALOGUE: Record<string, CatalogueEntryInput[]> = {
       notes: 'Staged-combustion study engine; reusable-booster option.'
     },
     {
-      name: 'Heron H-60',
+      name: 'Hollin H-60',
       propellants: 'LOX/LH2',
       ispSeaLevelS: null,
       ispVacuumS: 448,
@@ -86,7 +86,7 @@ export const DEMO_CATALOGUE: Record<string, CatalogueEntryInput[]> = {
       notes: 'Full-flow study engine; figures are the concept target.'
     },
     {
-      name: 'Heron H-110',
+      name: 'Hollin H-110',
       propellants: 'LOX/LH2',
       ispSeaLevelS: null,
       ispVacuumS: 455,
