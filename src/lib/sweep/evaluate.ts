@@ -265,6 +265,7 @@ const NO_REASONS: readonly CaseReasonCode[] = Object.freeze([]);
 
 const ASSUMPTIONS_BUDGET = [
   'Budget mode: losses from the allowances given, else from the physics loss correlation; max-Q is the correlation estimate.',
+  `Loss correlation: ${DEFAULT_LOSS_CORRELATION.source}.`,
   'First-stage Isp in the rocket equation is the trajectory average ½(Isp_sl + Isp_vac); upper stages use vacuum Isp.',
   'Lift-off T/W uses sea-level thrust; upper-stage T/W uses vacuum thrust over the weight at ignition.',
   'Max axial acceleration: thrust over burn-out mass per stage, drag neglected.'
@@ -828,7 +829,8 @@ function makeBudgetRunner(spec: SweepSpec, limits: FeasibilityLimits): BudgetRun
 function budgetDetail(spec: SweepSpec, w: Work, input: BudgetCaseInput, o: BudgetCaseResult, corr: number): CaseDetail {
   const report = explainBudgetCase(input, o);
   const origin = (bit: number): DetailTerm['origin'] => (corr & bit ? 'correlation' : 'allowance');
-  const corrNote = `physics loss correlation at lift-off T/W ${o.liftoffThrustToWeight.toFixed(3)} (${DEFAULT_LOSS_CORRELATION.source})`;
+  // The full source is in DEFAULT_LOSS_CORRELATION.source; the case page shows a short form.
+  const corrNote = `loss correlation at lift-off T/W ${o.liftoffThrustToWeight.toFixed(3)}, fitted to the ascent model`;
   const k = o.stageCount;
   let fixedRatios = false;
   for (let i = 0; i < k; i++) if (w.massRatio[i] === w.massRatio[i]) fixedRatios = true;
