@@ -1074,20 +1074,29 @@ function makeAscentRunner(spec: SweepSpec, limits: FeasibilityLimits, budget: Bu
         reserve: { value: reserve, origin: 'allowance', note: 'reserve, flown as extra delta-v' },
         total: r.requiredDeltaV
       },
-      stages: Array.from({ length: k }, (_, i) => ({
-        ispSeaLevel: w.ispSl[i],
-        ispVacuum: w.ispVac[i],
-        ispUsed: w.ispVac[i],
-        structuralCoefficient: ok ? dry[i] / (dry[i] + prop[i]) : 0,
-        propellantMass: ok ? prop[i] : 0,
-        dryMass: ok ? dry[i] : 0,
-        ignitionMass: 0,
-        massRatio: 0,
-        deltaV: 0,
-        thrustVacuum: ok ? (thrust[i] ?? 0) : 0,
-        thrustToWeight: 0,
-        catalogueId: w.catalogueId[i]
-      })),
+      stages: Array.from({ length: k }, (_, i) => {
+        // Ignition mass: this stage, every stage above it and the payload.
+        let ignition = payload;
+        for (let j = i; j < k; j++) ignition += prop[j] + dry[j];
+        const ratio = ok && ignition > prop[i] ? ignition / (ignition - prop[i]) : 0;
+        // Stage T/W: the first stage's at sea level (T_sl = T_vac·Isp_sl/Isp_vac), the others' in vacuum.
+        const t = ok ? (thrust[i] ?? 0) * (i === 0 ? w.ispSl[0] / w.ispVac[0] : 1) : 0;
+        return {
+          ispSeaLevel: w.ispSl[i],
+          ispVacuum: w.ispVac[i],
+          ispUsed: w.ispVac[i],
+          structuralCoefficient: ok ? dry[i] / (dry[i] + prop[i]) : 0,
+          propellantMass: ok ? prop[i] : 0,
+          dryMass: ok ? dry[i] : 0,
+          ignitionMass: ok ? ignition : 0,
+          massRatio: ratio,
+          // Vacuum rocket-equation delta-v of the stage (the simulated flight's losses are in the budget).
+          deltaV: ratio > 1 ? w.ispVac[i] * G0 * Math.log(ratio) : 0,
+          thrustVacuum: ok ? (thrust[i] ?? 0) : 0,
+          thrustToWeight: ok && ignition > 0 ? t / (ignition * G0) : 0,
+          catalogueId: w.catalogueId[i]
+        };
+      }),
       checks: report
         ? [...report.failures.map((f) => ({ ...f, passed: false })), ...report.passed.map((f) => ({ ...f, passed: true }))].map(
             ({ code, limit, value, margin, passed, message }) => ({ code, limit, value, margin, passed, message })
