@@ -38,11 +38,14 @@ fi
 
 # Install Debian's packages when a binary is missing (as root), or say what to install.
 ensure_packages() {
-  need=
-  command -v mariadbd >/dev/null 2>&1 || need="$need mariadb-server"
-  command -v mariadb >/dev/null 2>&1 || case $need in *mariadb-server*) ;; *) need="$need mariadb-client" ;; esac
-  command -v redis-server >/dev/null 2>&1 || need="$need redis-server"
-  command -v redis-cli >/dev/null 2>&1 || case $need in *redis-server*) ;; *) need="$need redis-tools" ;; esac
+  need= b=
+  # Every program this script runs; a half-removed install (server without client) counts as missing.
+  for b in mariadbd mariadb-install-db mariadb mariadb-admin; do
+    command -v "$b" >/dev/null 2>&1 || { need="$need mariadb-server mariadb-client"; break; }
+  done
+  for b in redis-server redis-cli; do
+    command -v "$b" >/dev/null 2>&1 || { need="$need redis-server redis-tools"; break; }
+  done
   [ -z "$need" ] && return 0
   if [ "$(id -u)" != 0 ]; then
     die "missing Debian packages:$need — install them with: sudo apt-get install -y$need"
