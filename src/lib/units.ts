@@ -25,6 +25,8 @@ export const M_PER_FT = 0.3048;
 export const M_PER_MI = 1609.344;
 export const N_PER_LBF = 4.4482216152605;
 export const PA_PER_PSF = N_PER_LBF / (M_PER_FT * M_PER_FT);
+/** Square foot in square metres (exact: 0.3048² = 0.09290304, NIST SP 811 B.8). */
+export const M2_PER_FT2 = M_PER_FT * M_PER_FT;
 
 /** What a number measures. Each kind has one SI display unit and one US display unit. */
 export type Quantity =
@@ -36,6 +38,7 @@ export type Quantity =
   | 'distance'
   | 'speed'
   | 'pressure'
+  | 'area'
   | 'isp';
 
 interface UnitDef {
@@ -58,6 +61,7 @@ export const UNITS: Record<Quantity, Record<UnitSystem, UnitDef>> = {
   distance: { si: { label: 'km', si: 1000 }, us: { label: 'mi', si: M_PER_MI } },
   speed: { si: { label: 'm/s', si: 1 }, us: { label: 'ft/s', si: M_PER_FT } },
   pressure: { si: { label: 'kPa', si: 1000 }, us: { label: 'psf', si: PA_PER_PSF } },
+  area: { si: { label: 'm²', si: 1 }, us: { label: 'ft²', si: M2_PER_FT2 } },
   isp: { si: { label: 's', si: 1 }, us: { label: 's', si: 1 } }
 };
 

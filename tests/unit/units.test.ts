@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import {
   KG_PER_LB,
   M_PER_FT,
+  M2_PER_FT2,
   M_PER_MI,
   N_PER_LBF,
   PA_PER_PSF,
@@ -32,6 +33,10 @@ describe('conversion factors (NIST SP 811, Appendix B)', () => {
     expect(KG_PER_LB).toBe(0.45359237);
     // B.8: foot → metre 3.048 E−01 (exact).
     expect(M_PER_FT).toBe(0.3048);
+    // NIST SP 811 B.8: square foot → square metre 9.290304 E-02 (exact).
+    expect(M2_PER_FT2).toBeCloseTo(0.09290304, 15);
+    expect(toDisplay('area', 0.09290304, 'us')).toBeCloseTo(1, 12);
+    expect(unitLabel('area', 'si')).toBe('m²');
     // B.8: mile (international) → metre 1.609 344 E+03 (exact).
     expect(M_PER_MI).toBe(1609.344);
     // B.8: pound-force → newton 4.448 222 E+00; exact value 4.448 221 615 260 5.

@@ -100,6 +100,8 @@ export function kindOfSpecUnit(unit: string): DisplayKind {
       return 'pressure';
     case 'm/s²':
       return 'acceleration';
+    case 'm²':
+      return 'area';
     case 'deg':
       return 'angle';
     default:
