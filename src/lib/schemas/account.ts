@@ -17,9 +17,4 @@ export const DisplayName = z
   .min(1, 'Enter your name')
   .max(120, 'Use at most 120 characters');
 
-/** Zod issues → { field: first message }. */
-export function errorsOf(issues: readonly z.core.$ZodIssue[]): Record<string, string> {
-  const out: Record<string, string> = {};
-  for (const i of issues) out[String(i.path[0] ?? 'form')] ??= i.message;
-  return out;
-}
+export { errorsOf } from './errors';

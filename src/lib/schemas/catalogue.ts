@@ -7,6 +7,7 @@
  * F_sl = F_vac · Isp_sl / Isp_vac.
  */
 import { z } from 'zod';
+import { errorsOf } from './errors';
 
 /** Field names with a label each, used in error messages and CSV headers. */
 export const ENTRY_FIELDS = {
@@ -79,10 +80,5 @@ export interface CatalogueEntry extends CatalogueEntryInput {
 
 /** Zod issues → { field: first message }. */
 export function fieldErrors(issues: readonly z.core.$ZodIssue[]): Partial<Record<EntryField | 'form', string>> {
-  const out: Record<string, string> = {};
-  for (const i of issues) {
-    const key = String(i.path[0] ?? 'form');
-    out[key] ??= i.message;
-  }
-  return out;
+  return errorsOf(issues);
 }

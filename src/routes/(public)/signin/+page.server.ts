@@ -1,5 +1,6 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { z } from 'zod';
+import { errorsOf } from '$lib/schemas/errors';
 import { checkCredentials, createSession } from '$lib/server/auth';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -24,9 +25,7 @@ export const actions: Actions = {
     const parsed = SignIn.safeParse(form);
     const email = typeof form.email === 'string' ? form.email : '';
     if (!parsed.success) {
-      const errors: Record<string, string> = {};
-      for (const i of parsed.error.issues) errors[String(i.path[0])] ??= i.message; // first problem per field
-      return fail(400, { email, errors });
+      return fail(400, { email, errors: errorsOf(parsed.error.issues) });
     }
     const user = await checkCredentials(parsed.data.email, parsed.data.password);
     if (!user) {

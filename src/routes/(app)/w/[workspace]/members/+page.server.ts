@@ -1,4 +1,5 @@
 import { error, fail, redirect } from '@sveltejs/kit';
+import { errorsOf } from '$lib/schemas/errors';
 import { z } from 'zod';
 import { requireWorkspace } from '$lib/server/guard';
 import { ROLES } from '$lib/server/db/models';
@@ -40,7 +41,7 @@ export const actions: Actions = {
     const values = { email: String(form.email ?? ''), role: String(form.role ?? '') };
     const parsed = InviteForm.safeParse(form);
     if (!parsed.success) {
-      const errors = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message]));
+      const errors = errorsOf(parsed.error.issues);
       return fail(400, { action: 'invite', values, errors });
     }
     try {

@@ -1,4 +1,5 @@
 import { fail, redirect } from '@sveltejs/kit';
+import { errorsOf } from '$lib/schemas/errors';
 import { z } from 'zod';
 import { requireWorkspace } from '$lib/server/guard';
 import { Workspace } from '$lib/server/db/models';
@@ -21,7 +22,7 @@ export const actions: Actions = {
     const values = { name: String(form.get('name') ?? ''), description: String(form.get('description') ?? '') };
     const parsed = WorkspaceForm.safeParse(values);
     if (!parsed.success) {
-      const errors = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), i.message]));
+      const errors = errorsOf(parsed.error.issues);
       return fail(400, { values, errors });
     }
     await Workspace.update(parsed.data, { where: { id: workspace.id } });
