@@ -51,6 +51,8 @@ describe('sweeps in a real browser', () => {
     expect(await page.getByLabel('Question this sweep answers').inputValue()).toBe('How light can the two-stage launcher get with better structures?');
     await expect.poll(() => text(page, 'case-count')).toBe('75');
     await expect.poll(() => text(page, 'preview-glow'), { timeout: 15_000 }).toMatch(/\d[\d,]* kg/);
+    // The starting baseline is a vehicle that closes.
+    expect(await text(page, 'preview-verdict')).toBe('Feasible');
 
     // A bad value is named beside its field, and the form is not sent.
     const payload = page.getByLabel(/Required payload/);

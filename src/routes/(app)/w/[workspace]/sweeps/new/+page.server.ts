@@ -8,37 +8,11 @@ import { QueueUnavailableError } from '$lib/server/sweeps/runner';
 import { sweepAccess } from '$lib/server/sweeps/access';
 import { createSweep } from '$lib/server/sweeps/service';
 import { listStudies } from '$lib/server/sweeps/studies';
-import { EXAMPLE_SIZING_INPUT } from '$lib/sweep/examples';
+import { starterSpec, type StarterEntry as Entry } from '$lib/server/sweeps/starter';
 import type { Actions, PageServerLoad } from './$types';
 
 /** Largest spec the builder accepts (form field or uploaded file), in bytes. */
 const MAX_SPEC_BYTES = 256 * 1024;
-
-type Entry = { id: string; name: string; ispSeaLevel: number; ispVacuum: number };
-
-/**
- * A valid starting point: the two-stage sizing example, with its propulsion taken from this
- * workspace's own catalogue when it has entries (a booster engine below, vacuum engines above).
- */
-function starterSpec(entries: Entry[]) {
-  const spec = structuredClone(EXAMPLE_SIZING_INPUT) as typeof EXAMPLE_SIZING_INPUT & Record<string, unknown>;
-  spec.name = 'New sweep';
-  spec.question = '';
-  delete spec.baseline.name;
-  const booster = [...entries].filter((e) => e.ispSeaLevel > 0).sort((a, b) => b.ispSeaLevel - a.ispSeaLevel)[0];
-  const upper = [...entries].filter((e) => e.ispSeaLevel === 0 || e.ispVacuum - e.ispSeaLevel > 60).sort((a, b) => b.ispVacuum - a.ispVacuum);
-  const asPropulsion = (e: Entry) => ({ catalogueId: e.id, name: e.name, ispSeaLevel: e.ispSeaLevel, ispVacuum: e.ispVacuum });
-  const [s0, s1] = spec.baseline.stages;
-  s0.name = 'First stage';
-  s1.name = 'Upper stage';
-  if (booster) s0.propulsion = asPropulsion(booster);
-  if (upper.length) {
-    s1.propulsion = asPropulsion(upper[upper.length - 1]);
-    const choice = spec.sweep.parameters?.find((p) => p.path === 'stages.1.propulsion');
-    if (choice) choice.values = { kind: 'choices', options: upper.slice(0, 3).map((e) => ({ ...e })) };
-  }
-  return spec;
-}
 
 /**
  * Cases per second of this workspace's recent completed sweeps, per mode (the median of up to
