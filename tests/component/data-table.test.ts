@@ -67,3 +67,45 @@ describe('DataTable', () => {
     expect(screen.getByText('No rows')).toBeTruthy();
   });
 });
+
+describe('DataTable column filters (table-core columnFilters state)', () => {
+  const filterColumns = [
+    { id: 'id', header: 'Case', value: (r: Row) => r.id, numeric: true },
+    { id: 'name', header: 'Name', value: (r: Row) => r.name, filter: { kind: 'choice' as const, options: [{ value: 'three', label: 'Three' }, { value: 'seven', label: 'Seven' }] } },
+    { id: 'glow', header: 'GLOW (kg)', value: (r: Row) => r.glow, numeric: true, filter: { kind: 'range' as const } }
+  ];
+  function withFilters(extra: Record<string, unknown> = {}) {
+    const onFilter = vi.fn();
+    render(DataTable, {
+      props: { columns: filterColumns, rows, rowKey: (r: Row) => r.id, total: 2, pageIndex: 0, pageSize: 25, sort: null, label: 'Results', onSort: vi.fn(), onPage: vi.fn(), onFilter, ...extra }
+    } as never);
+    return onFilter;
+  }
+
+  it('reports a typed range end as the column filter value; clearing both ends removes the filter', async () => {
+    const onFilter = withFilters();
+    await fireEvent.input(screen.getByLabelText('GLOW (kg) from'), { target: { value: '10,000' } });
+    expect(onFilter).toHaveBeenLastCalledWith([{ id: 'glow', value: { min: '10,000', max: '' } }]);
+    cleanup();
+    const again = withFilters({ filters: [{ id: 'glow', value: { min: '10,000', max: '' } }] });
+    expect((screen.getByLabelText('GLOW (kg) from') as HTMLInputElement).value).toBe('10,000');
+    await fireEvent.input(screen.getByLabelText('GLOW (kg) from'), { target: { value: '' } });
+    expect(again).toHaveBeenLastCalledWith([]);
+  });
+
+  it('reports a choice, shows the error of a column beside its inputs, and clears all filters', async () => {
+    const onFilter = withFilters({ filters: [{ id: 'glow', value: { min: 'x', max: '' } }], filterErrors: { glow: 'GLOW (kg) from must be a number' } });
+    const from = screen.getByLabelText('GLOW (kg) from');
+    expect(from.getAttribute('aria-invalid')).toBe('true');
+    expect(document.getElementById(from.getAttribute('aria-describedby')!)?.textContent).toBe('GLOW (kg) from must be a number');
+    await fireEvent.change(screen.getByLabelText('Name filter'), { target: { value: 'seven' } });
+    expect(onFilter).toHaveBeenLastCalledWith([{ id: 'glow', value: { min: 'x', max: '' } }, { id: 'name', value: 'seven' }]);
+    await fireEvent.click(screen.getByRole('button', { name: 'Clear filters' }));
+    expect(onFilter).toHaveBeenLastCalledWith([]);
+  });
+
+  it('has no filter row without an onFilter handler', () => {
+    setup();
+    expect(screen.queryByTestId('filter-row')).toBeNull();
+  });
+});

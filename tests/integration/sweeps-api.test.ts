@@ -131,6 +131,38 @@ describe('studies and sweeps over HTTP', () => {
     expect(Object.keys(bad.body.errors).sort()).toEqual(['limit', 'min.nope', 'sort']);
   });
 
+  it('filters on swept parameters: numeric ranges and catalogue choices, with errors naming the query field', async () => {
+    // The sweep is a grid: 5 first-stage structural coefficients (0.06…0.10 by 0.01) × 3 upper-stage
+    // engines × 100 lift-off T/W values = 1,500 cases; a filter on one dimension keeps that share.
+    const path = 'stages.0.structuralCoefficient';
+    const range = await call(`/api/sweeps/${sweepId}/cases?limit=1000&min.param.${path}=0.07&max.param.${path}=0.08`, { as: 'viewer' });
+    expect(range.status).toBe(200);
+    expect(range.body.total).toBe(2 * 3 * 100);
+    expect(range.body.cases.every((c: { params: Record<string, number> }) => c.params[path] >= 0.07 - 1e-12 && c.params[path] <= 0.08 + 1e-12)).toBe(true);
+    expect(new Set(range.body.cases.map((c: { params: Record<string, number> }) => c.params[path].toFixed(2)))).toEqual(new Set(['0.07', '0.08']));
+
+    const engine = 'stages.1.propulsion';
+    const one = await call(`/api/sweeps/${sweepId}/cases?limit=10&is.param.${engine}=pl-hx-vac&sort=glow`, { as: 'viewer' });
+    expect(one.body.total).toBe(500);
+    expect(one.body.cases.every((c: { params: Record<string, string> }) => c.params[engine] === 'pl-hx-vac')).toBe(true);
+    const two = await call(`/api/sweeps/${sweepId}/cases?limit=1&is.param.${engine}=pl-hx-vac,pl-mx-vac&min.param.${path}=0.1`, { as: 'viewer' });
+    expect(two.body.total).toBe(2 * 100);
+
+    const bad = await call(
+      `/api/sweeps/${sweepId}/cases?min.param.stages.9.thrustToWeight=1&min.param.${engine}=2&is.param.${path}=x&max.param.liftoffThrustToWeight=abc`,
+      { as: 'viewer' }
+    );
+    expect(bad.status).toBe(400);
+    expect(bad.body.errors['max.param.liftoffThrustToWeight']).toMatch(/must be a number/);
+    const unknownChoice = await call(`/api/sweeps/${sweepId}/cases?is.param.${engine}=no-such-engine`, { as: 'viewer' });
+    expect(unknownChoice.status).toBe(400);
+    expect(unknownChoice.body.errors[`is.param.${engine}`]).toMatch(/"no-such-engine" is not one of the choices/);
+    const misuse = await call(`/api/sweeps/${sweepId}/cases?min.param.stages.9.thrustToWeight=1&min.param.${engine}=2&is.param.${path}=x`, { as: 'viewer' });
+    expect(misuse.status).toBe(400);
+    expect(Object.keys(misuse.body.errors).sort()).toEqual([`is.param.${path}`, `min.param.${engine}`, 'min.param.stages.9.thrustToWeight']);
+    expect(misuse.body.errors['min.param.stages.9.thrustToWeight']).toMatch(/not swept here/);
+  });
+
   it('returns the front (rank 1) and one case re-evaluated identically', async () => {
     const f = await call(`/api/sweeps/${sweepId}/front`, { as: 'viewer' });
     expect(f.body.live).toBe(false);

@@ -99,6 +99,14 @@ export interface CaseQuery {
   rank: number | null;
   min: Record<string, number>;
   max: Record<string, number>;
+  /** Filters on swept parameters by path: a numeric range, or catalogue choices by entry id. */
+  param: Record<string, ParamFilter>;
+}
+
+export interface ParamFilter {
+  min?: number;
+  max?: number;
+  is?: string[];
 }
 
 const baseQuery = z.object({
@@ -111,13 +119,32 @@ const baseQuery = z.object({
   rank: z.coerce.number({ error: 'rank must be a number' }).int().min(1, 'rank must be at least 1').optional()
 });
 
-/** Parses ?sort=glow&dir=asc&limit=50&feasible=1&min.glow=1000&max.dryMass=5000&after=<cursor>. */
+/**
+ * Parses ?sort=glow&dir=asc&limit=50&feasible=1&min.glow=1000&max.dryMass=5000&after=<cursor>;
+ * swept parameters filter by path: min.param.stages.0.structuralCoefficient=0.07, and catalogue
+ * choices by entry ids: is.param.stages.1.propulsion=12,14.
+ */
 export function parseCaseQuery(params: URLSearchParams): CaseQuery {
   const plain: Record<string, string> = {};
   const min: Record<string, number> = {};
   const max: Record<string, number> = {};
+  const param: Record<string, ParamFilter> = {};
   const errors: Record<string, string> = {};
   for (const [k, v] of params) {
+    const pm = /^(min|max|is)\.param\.([\w.]{1,120})$/.exec(k);
+    if (pm) {
+      const f = (param[pm[2]] ??= {});
+      if (pm[1] === 'is') {
+        const ids = v.split(',').map((x) => x.trim()).filter(Boolean);
+        if (!ids.length || ids.length > 100 || ids.some((x) => x.length > 64)) errors[k] = `${k} must list one to 100 entry ids, separated by commas`;
+        else f.is = ids;
+      } else {
+        const r = numParam(k).safeParse(v);
+        if (!r.success) errors[k] = r.error.issues[0].message;
+        else f[pm[1] as 'min' | 'max'] = r.data;
+      }
+      continue;
+    }
     const m = /^(min|max)\.(\w+)$/.exec(k);
     if (m) {
       if (!COLUMN_BY_KEY.has(m[2])) {
@@ -148,11 +175,56 @@ export function parseCaseQuery(params: URLSearchParams): CaseQuery {
     feasibleOnly: q.feasible === '1' || q.feasible === 'true',
     rank: q.rank ?? null,
     min,
-    max
+    max,
+    param
   };
 }
 
-function whereClause(sweepId: number, q: Pick<CaseQuery, 'feasibleOnly' | 'rank' | 'min' | 'max' | 'sort'>) {
+type ParamCondition = { column: string; op: '>=' | '<=' | 'IN'; value: number | number[] };
+
+/**
+ * The parameter filters as column conditions on p0..p9: a path must be one of the sweep's swept
+ * parameters, a range applies to numeric ones and entry ids to catalogue choices (stored as the
+ * option's position).
+ */
+export function paramConditions(param: CaseQuery['param'], dims: readonly CaseDimension[]): ParamCondition[] {
+  const out: ParamCondition[] = [];
+  const errors: Record<string, string> = {};
+  for (const [path, f] of Object.entries(param)) {
+    const j = dims.findIndex((d) => d.path === path);
+    const key = (op: string) => `${op}.param.${path}`;
+    if (j < 0) {
+      errors[key(f.is ? 'is' : f.min !== undefined ? 'min' : 'max')] = `"${path}" is not swept here; one of ${dims.map((d) => d.path).join(', ') || '(none)'}`;
+      continue;
+    }
+    const d = dims[j];
+    const column = PARAM_COLUMNS[j];
+    if (d.kind === 'choices') {
+      if (f.min !== undefined || f.max !== undefined) errors[key(f.min !== undefined ? 'min' : 'max')] = `${path} is a catalogue choice; filter it with is.param.${path}=<entry ids>`;
+      if (f.is) {
+        const positions: number[] = [];
+        for (const id of f.is) {
+          const at = d.options.findIndex((o) => o.id === id);
+          if (at < 0) errors[key('is')] = `"${id}" is not one of the choices of ${path} (${d.options.map((o) => o.id).join(', ')})`;
+          else positions.push(at);
+        }
+        out.push({ column, op: 'IN', value: positions });
+      }
+    } else {
+      if (f.is) errors[key('is')] = `${path} is numeric; filter it with min.param.${path} / max.param.${path}`;
+      if (f.min !== undefined) out.push({ column, op: '>=', value: f.min });
+      if (f.max !== undefined) out.push({ column, op: '<=', value: f.max });
+    }
+  }
+  if (Object.keys(errors).length) throw new InputError('Invalid query', errors);
+  return out;
+}
+
+function whereClause(
+  sweepId: number,
+  q: Pick<CaseQuery, 'feasibleOnly' | 'rank' | 'min' | 'max' | 'sort'>,
+  params: readonly ParamCondition[] = []
+) {
   const where = ['sweep_id = ?'];
   const args: unknown[] = [sweepId];
   if (q.feasibleOnly) where.push('feasible = 1');
@@ -168,6 +240,20 @@ function whereClause(sweepId: number, q: Pick<CaseQuery, 'feasibleOnly' | 'rank'
     where.push(`${COLUMN_BY_KEY.get(k)!.column} <= ?`);
     args.push(v);
   }
+  for (const c of params) {
+    if (c.op === 'IN') {
+      const list = c.value as number[];
+      where.push(list.length ? `${c.column} IN (${list.map(() => '?').join(',')})` : 'FALSE');
+      args.push(...list);
+    } else {
+      // Stored as DOUBLE from the plan's own values; compare with a relative margin so a typed
+      // 0.07 matches the stored 0.07000000000000001 of a stepped level.
+      const v = c.value as number;
+      const eps = Math.abs(v) * 1e-9;
+      where.push(`${c.column} ${c.op} ?`);
+      args.push(c.op === '>=' ? v - eps : v + eps);
+    }
+  }
   // Rows without a value in the sort column (failed cases) are left out of a sorted page.
   if (q.sort !== 'caseIndex') where.push(`${SORT_COLUMN[q.sort]} IS NOT NULL`);
   return { where, args };
@@ -181,7 +267,7 @@ export async function casePage(sweep: Sweep, q: CaseQuery) {
   const col = SORT_COLUMN[q.sort];
   const dir = q.dir === 'asc' ? 'ASC' : 'DESC';
   const cmp = q.dir === 'asc' ? '>' : '<';
-  const { where, args } = whereClause(sweep.id, q);
+  const { where, args } = whereClause(sweep.id, q, paramConditions(q.param, dims));
   const pageWhere = [...where];
   const pageArgs = [...args];
   if (q.after) {
@@ -222,7 +308,7 @@ export async function casePage(sweep: Sweep, q: CaseQuery) {
 }
 
 async function countMatching(conn: PoolConnection, sweep: Sweep, q: CaseQuery, where: string[], args: unknown[]) {
-  const filtered = q.rank !== null || Object.keys(q.min).length > 0 || Object.keys(q.max).length > 0;
+  const filtered = q.rank !== null || Object.keys(q.min).length > 0 || Object.keys(q.max).length > 0 || Object.keys(q.param).length > 0;
   // The counters already hold the unfiltered totals. The sort columns are never null except
   // in failed cases (the evaluator's flat result is finite), which a sorted page leaves out.
   if (!filtered) {

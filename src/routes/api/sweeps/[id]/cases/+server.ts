@@ -5,7 +5,10 @@ import { api, sweepIdParam } from '$lib/server/sweeps/http';
 import { casePage, parseCaseQuery } from '$lib/server/sweeps/results';
 import type { RequestHandler } from './$types';
 
-/** A sorted, filtered page: ?sort=glow&dir=asc&limit=50&offset=0|after=<next>&feasible=1&rank=1&min.glow=&max.dryMass= */
+/**
+ * A sorted, filtered page: ?sort=glow&dir=asc&limit=50&offset=0|after=<next>&feasible=1&rank=1&min.glow=&max.dryMass=
+ * &min.param.<path>=&max.param.<path>= (swept numbers) &is.param.<path>=<entry ids> (catalogue choices)
+ */
 export const GET: RequestHandler = ({ locals, params, url }) =>
   api(async () => {
     requireUser(locals);
