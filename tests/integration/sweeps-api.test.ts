@@ -199,6 +199,27 @@ describe('studies and sweeps over HTTP', () => {
     expect(text).not.toMatch(/(^|,)=HYPERLINK/m);
   });
 
+  it('exports only the cases matching the table filters, in case order', async () => {
+    const engine = 'stages.1.propulsion';
+    const res = await call(`/api/sweeps/${sweepId}/export.csv?is.param.${engine}=pl-hx-vac&feasible=1`, { as: 'viewer' });
+    expect(res.status).toBe(200);
+    expect(res.headers.get('content-disposition')).toMatch(/-filtered\.csv"$/);
+    const lines = res.text.trimEnd().split('\r\n');
+    const col = lines[0].split(',').indexOf(engine);
+    const feasibleCol = lines[0].split(',').indexOf('feasible');
+    const body = lines.slice(1).map((l) => l.split(','));
+    // The same set the cases API counts for these filters.
+    const counted = await call(`/api/sweeps/${sweepId}/cases?is.param.${engine}=pl-hx-vac&feasible=1&limit=1`, { as: 'viewer' });
+    expect(body).toHaveLength(counted.body.total);
+    expect(body.length).toBeGreaterThan(0);
+    expect(body.every((cells) => cells[col] === 'pl-hx-vac' && cells[feasibleCol] === '1')).toBe(true);
+    const order = body.map((cells) => Number(cells[0]));
+    expect(order).toEqual([...order].sort((a, b) => a - b));
+    const bad = await call(`/api/sweeps/${sweepId}/export.csv?is.param.${engine}=nope`, { as: 'viewer' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.errors[`is.param.${engine}`]).toMatch(/not one of the choices/);
+  });
+
   it('previews one case from an unsaved spec, with field errors for a bad one', async () => {
     const ok = await call('/api/evaluate', { as: 'viewer', method: 'POST', body: { spec: sizingSpec(30), caseIndex: 3 } });
     expect(ok.status).toBe(200);

@@ -458,8 +458,16 @@ export function csvCell(v: unknown): string {
  * The whole sweep as CSV, pulled page by page by keyset on case_index as the client reads
  * (ReadableStream pull), so memory stays one page whatever the sweep size.
  */
-export function exportCsv(sweep: Sweep, pageSize = 2_000): ReadableStream<Uint8Array> {
+/**
+ * The sweep's cases as CSV in case order, optionally only those matching the filters of a case
+ * query (feasible, rank, result ranges, swept parameters; its sort and paging are ignored). Bad
+ * filters throw InputError here, before the stream starts.
+ */
+export function exportCsv(sweep: Sweep, filters: Pick<CaseQuery, 'feasibleOnly' | 'rank' | 'min' | 'max' | 'param'> | null = null, pageSize = 2_000): ReadableStream<Uint8Array> {
   const dims = dimensionsOf(sweep.spec as SweepSpec);
+  const { where, args } = filters
+    ? whereClause(sweep.id, { ...filters, sort: 'caseIndex' }, paramConditions(filters.param, dims))
+    : { where: ['sweep_id = ?'], args: [sweep.id] };
   const enc = new TextEncoder();
   const header = [
     'case_index',
@@ -480,8 +488,8 @@ export function exportCsv(sweep: Sweep, pageSize = 2_000): ReadableStream<Uint8A
       if (done) return;
       try {
         const rows = (await withConnection((conn) =>
-          conn.query(`SELECT ${SELECT_COLUMNS} FROM sweep_cases WHERE sweep_id = ? AND case_index > ? ORDER BY case_index LIMIT ?`, [
-            sweep.id,
+          conn.query(`SELECT ${SELECT_COLUMNS} FROM sweep_cases WHERE ${where.join(' AND ')} AND case_index > ? ORDER BY case_index LIMIT ?`, [
+            ...args,
             after,
             pageSize
           ])
