@@ -220,10 +220,14 @@ describe('sweeps in a real browser', () => {
 
     await page.goto(sweepUrl);
     await page.getByLabel('Label').fill('For the programme review');
+    // The engineer's own setting is SI; this report is shared in US customary units.
+    expect(await page.getByLabel('Units in the report').inputValue()).toBe('si');
+    await page.getByLabel('Units in the report').selectOption('us');
     await page.getByRole('button', { name: 'Create share link' }).click();
     shareUrl = await (await page.getByTestId('share-url').elementHandle())!.inputValue();
     expect(shareUrl).toMatch(new RegExp(`^${BASE_URL}/share/[A-Za-z0-9_-]{43}$`));
     await expect.poll(() => text(page, 'share-links')).toContain('For the programme review');
+    expect(await text(page, 'share-links')).toContain('US customary');
 
     // A fresh browser context: no session cookie.
     const anon = await (await newContext(browser)).newPage();
@@ -236,6 +240,20 @@ describe('sweeps in a real browser', () => {
     // Nothing else: no links into the app, and the app itself still asks for a sign-in.
     expect(await anon.locator('a[href^="/w/"], a[href^="/api/"]').count()).toBe(0);
     await screenshot(anon, 'share-report');
+    // In the link's units, and the reader switches to SI from the keyboard.
+    const top = () => text(anon, 'report-top');
+    expect(await top()).toContain('(lb)');
+    expect(await top()).not.toContain('(kg)');
+    const units = anon.getByTestId('share-units');
+    expect(await units.getByRole('link', { name: 'US customary', exact: true }).getAttribute('aria-current')).toBe('true');
+    await units.getByRole('link', { name: 'SI', exact: true }).focus();
+    await anon.keyboard.press('Enter');
+    await expect.poll(() => new URL(anon.url()).search).toBe('?units=si');
+    await expect.poll(top).toContain('(kg)');
+    expect(await top()).not.toContain('(lb)');
+    expect(await units.getByRole('link', { name: 'SI', exact: true }).getAttribute('aria-current')).toBe('true');
+    expect(await anon.locator('a[href^="/w/"], a[href^="/api/"]').count()).toBe(0);
+    await screenshot(anon, 'share-report-si');
     const res = await anon.request.get(`${BASE_URL}/api${sweepUrl.replace(`/w/${WS}`, '')}`, { maxRedirects: 0 });
     expect(res.status()).toBe(401);
     await anon.goto(sweepUrl);

@@ -54,6 +54,16 @@ describe('migrations on the real MariaDB', () => {
     expect(idx.map((r: { i: string }) => r.i)).toContain('memberships_user_workspace');
   });
 
+  it('gives share links their report units, SI unless chosen', async () => {
+    const [col] = await conn.query(
+      "SELECT column_type AS t, is_nullable AS n, column_default AS d FROM information_schema.columns WHERE table_schema = 'loftwise_scratch' AND table_name = 'share_links' AND column_name = 'units'"
+    );
+    expect(col).toBeDefined();
+    expect(col.t).toBe("enum('si','us')");
+    expect(col.n).toBe('NO');
+    expect(String(col.d).replace(/'/g, '')).toBe('si');
+  });
+
   it('seeds the demo scenario idempotently', async () => {
     dbCli('seed', ENV);
     dbCli('seed', ENV);

@@ -17,6 +17,7 @@ import * as m0014 from './migrations/2026-12-01-0014-sweep-front-marks';
 import * as m0015 from './migrations/2026-12-01-0015-drop-chunk-front-index';
 import * as m0020 from './migrations/2026-12-01-0020-invites';
 import * as m0021 from './migrations/2026-12-01-0021-catalogue';
+import * as m0022 from './migrations/2026-12-01-0022-share-link-units';
 
 type Step = (p: { context: QueryInterface }) => Promise<void>;
 const MIGRATIONS: { name: string; up: Step; down: Step }[] = [
@@ -30,7 +31,8 @@ const MIGRATIONS: { name: string; up: Step; down: Step }[] = [
   { name: '2026-12-01-0014-sweep-front-marks', ...m0014 },
   { name: '2026-12-01-0015-drop-chunk-front-index', ...m0015 },
   { name: '2026-12-01-0020-invites', ...m0020 },
-  { name: '2026-12-01-0021-catalogue', ...m0021 }
+  { name: '2026-12-01-0021-catalogue', ...m0021 },
+  { name: '2026-12-01-0022-share-link-units', ...m0022 }
 ];
 
 /** The ledger of applied migrations (umzug's default model would be created as utf8mb3). */

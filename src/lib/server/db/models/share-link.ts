@@ -6,6 +6,7 @@ import {
   type InferCreationAttributes
 } from 'sequelize';
 import { sequelize } from '../sequelize';
+import type { UnitSystem } from './user';
 
 /** Anonymous read-only access to one sweep's report. Only the token's SHA-256 is stored. */
 export class ShareLink extends Model<InferAttributes<ShareLink>, InferCreationAttributes<ShareLink>> {
@@ -14,6 +15,8 @@ export class ShareLink extends Model<InferAttributes<ShareLink>, InferCreationAt
   declare tokenHash: string;
   declare prefix: string;
   declare label: string;
+  /** Display units of the shared report; the reader may switch on the page. */
+  declare units: CreationOptional<UnitSystem>;
   declare createdBy: string | null;
   declare expiresAt: Date | null;
   declare revokedAt: CreationOptional<Date | null>;
@@ -29,6 +32,7 @@ ShareLink.init(
     tokenHash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },
     prefix: { type: DataTypes.STRING(16), allowNull: false },
     label: { type: DataTypes.STRING(120), allowNull: false },
+    units: { type: DataTypes.ENUM('si', 'us'), allowNull: false, defaultValue: 'si' },
     createdBy: { type: DataTypes.UUID, allowNull: true },
     expiresAt: { type: DataTypes.DATE, allowNull: true },
     revokedAt: { type: DataTypes.DATE, allowNull: true },

@@ -2,6 +2,8 @@ import { fail } from '@sveltejs/kit';
 import { Study } from '$lib/server/db/models';
 import { sweepView } from '$lib/server/sweeps/service';
 import { createShareLink, listShareLinks, revokeShareLink, SHARE_EXPIRY_DAYS } from '$lib/server/share-links';
+import { parseShareLinkForm } from '$lib/schemas/share';
+import { UNIT_SYSTEM_LABELS, UNIT_SYSTEMS } from '$lib/units';
 import { sweepForPage } from './sweep.server';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -18,20 +20,19 @@ export const load: PageServerLoad = async ({ locals, params }) => {
     sweep: sweepView(sweep, { spec: true }),
     study: study ? { id: study.id, name: study.name } : null,
     shareLinks: links,
-    expiryChoices: SHARE_EXPIRY_DAYS
+    expiryChoices: SHARE_EXPIRY_DAYS,
+    unitChoices: UNIT_SYSTEMS.map((value) => ({ value, label: UNIT_SYSTEM_LABELS[value] }))
   };
 };
 
 export const actions: Actions = {
   share: async ({ locals, params, request, url }) => {
     const { sweep } = await sweepForPage(locals, params, 'engineer');
-    const form = await request.formData();
-    const label = String(form.get('label') ?? '').trim();
-    const days = Number(form.get('days'));
-    const values = { label, days: String(form.get('days') ?? '') };
-    if (label.length > 120) return fail(400, { share: { values, errors: { label: 'the label is at most 120 characters' } } });
-    if (!SHARE_EXPIRY_DAYS.includes(days)) return fail(400, { share: { values, errors: { days: `choose ${SHARE_EXPIRY_DAYS.join(', ')} days` } } });
-    const { token, link } = await createShareLink(sweep.id, locals.user!.id, label || `Report of ${sweep.name}`.slice(0, 120), days);
+    // Units left out default to the creator's own display units.
+    const parsed = parseShareLinkForm(await request.formData(), locals.user!.units);
+    if (!parsed.ok) return fail(400, { share: { values: parsed.values, errors: parsed.errors } });
+    const { label, days, units } = parsed.data;
+    const { token, link } = await createShareLink(sweep.id, locals.user!.id, label || `Report of ${sweep.name}`.slice(0, 120), days, units);
     // The token is shown once: only its hash is stored.
     return { created: { ...link, url: `${url.origin}/share/${token}` } };
   },
