@@ -51,8 +51,8 @@ export default {
           900: '#76300c',
           950: '#401604'
         },
-        good: '#2f9e5b',
-        caution: '#c98a06',
+        good: '#1f6f40',
+        caution: '#9a6700',
         fault: '#c2412d'
       },
       fontFamily: {
