@@ -289,6 +289,9 @@ await median('page: sort=totalLosses asc, offset 10,000', page('sort=totalLosses
 const first = await casePage(big, parseCaseQuery(new URLSearchParams('sort=glow&limit=50')));
 await median('page: keyset (after=) page 2, sort=glow', page(`sort=glow&limit=50&after=${first.next}`));
 await median('page: sort=paretoRank, feasible, max.glow=40000', page('sort=paretoRank&limit=50&feasible=1&max.glow=40000'));
+// Swept-parameter filters read the unindexed p0..p9 columns (here p0 is uniform on 0…1).
+await median('page: sort=glow, min.param (half the cases match)', page('sort=glow&limit=50&min.param.stages.0.structuralCoefficient=0.5'));
+await median('page: sort=glow, max.param (0.1 % match: a long index walk)', page('sort=glow&limit=50&max.param.stages.0.structuralCoefficient=0.001'), 5);
 await median('front: completed (rank 1 via index)', () => front(big!));
 await Sweep.update({ status: 'running' }, { where: { id: big.id } });
 await big.reload();
