@@ -50,14 +50,15 @@ interface UnitDef {
 
 /**
  * Display unit per quantity and system. Thrust is shown in kN (SI) because engine thrusts
- * run to six or seven digits in newtons; altitude and distance in km, like orbit figures.
+ * run to six or seven digits in newtons; altitude and distance in km (US: statute miles), like
+ * orbit figures — a 500 km orbit reads 310.7 mi, not 1,640,420 ft.
  */
 export const UNITS: Record<Quantity, Record<UnitSystem, UnitDef>> = {
   mass: { si: { label: 'kg', si: 1 }, us: { label: 'lb', si: KG_PER_LB } },
   force: { si: { label: 'N', si: 1 }, us: { label: 'lbf', si: N_PER_LBF } },
   thrust: { si: { label: 'kN', si: 1000 }, us: { label: 'lbf', si: N_PER_LBF } },
   length: { si: { label: 'm', si: 1 }, us: { label: 'ft', si: M_PER_FT } },
-  altitude: { si: { label: 'km', si: 1000 }, us: { label: 'ft', si: M_PER_FT } },
+  altitude: { si: { label: 'km', si: 1000 }, us: { label: 'mi', si: M_PER_MI } },
   distance: { si: { label: 'km', si: 1000 }, us: { label: 'mi', si: M_PER_MI } },
   speed: { si: { label: 'm/s', si: 1 }, us: { label: 'ft/s', si: M_PER_FT } },
   pressure: { si: { label: 'kPa', si: 1000 }, us: { label: 'psf', si: PA_PER_PSF } },

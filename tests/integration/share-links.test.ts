@@ -7,6 +7,7 @@
  *
  * Conversion checked against NIST SP 811 (2008), Appendix B.8: 1 lb = 0.453 592 37 kg (exact),
  * so the demo sweep's 500 kg payload is 500 / 0.45359237 = 1102.31 lb, shown as "1,102 lb".
+ * Its 500 km orbit is 310.69 mi (1 mi = 1609.344 m).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
@@ -98,6 +99,8 @@ describe('share links in the units of their report', () => {
     expect(html).not.toContain('Payload (kg)');
     // NIST SP 811 B.8: 500 kg / 0.45359237 kg/lb = 1102.31 lb.
     expect(html).toContain('payload of 1,102 lb');
+    // The 500 km orbit in statute miles: 500 / 1.609344 = 310.69 mi (NIST SP 811 B.8, exact factor).
+    expect(html).toContain('circular at 310.7 mi');
     // The reader's switch, with the current system marked; still no way into the app.
     expect(html).toMatch(/<a[^>]*href="\?units=us"[^>]*aria-current="true"/);
     expect(html).toMatch(/<a[^>]*href="\?units=si"/);

@@ -85,6 +85,12 @@ describe('toDisplay / fromDisplay', () => {
     expect(unitLabel('thrust', 'si')).toBe('kN');
   });
 
+  it('shows US orbit altitudes in statute miles (NIST SP 811 B.8: 1 mi = 1 609.344 m exactly)', () => {
+    // 500 km / 1.609344 km = 310.686 mi
+    expect(unitLabel('altitude', 'us')).toBe('mi');
+    expect(toDisplay('altitude', 500_000, 'us')).toBeCloseTo(310.686, 3);
+  });
+
   it('leaves specific impulse in seconds in both systems', () => {
     expect(toDisplay('isp', 311, 'us')).toBe(311);
     expect(unitLabel('isp', 'us')).toBe('s');
