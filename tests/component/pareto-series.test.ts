@@ -4,7 +4,7 @@
  * 811 App. B.8), cases without a value left out, the third quantity mapped onto the ramp.
  */
 import { describe, expect, it } from 'vitest';
-import { RAMP, paretoSeries } from '../../src/lib/components/pareto-series';
+import { RAMP, niceAxis, paretoSeries } from '../../src/lib/components/pareto-series';
 
 const c = (caseIndex: number, feasible: boolean, glow: number | null, payloadMass: number | null, dryMass = 100) => ({
   caseIndex,
@@ -41,5 +41,23 @@ describe('paretoSeries', () => {
     expect(byCase[2]).toBe(RAMP[RAMP.length - 1]);
     // Infeasible cases stay hollow grey whatever the colour quantity.
     expect(s.infeasible.every((p) => p.fillColor === undefined)).toBe(true);
+  });
+});
+
+describe('niceAxis', () => {
+  it('puts the ticks on 1, 2 or 5 × 10^k over the extent (the usual nice-number rule, common practice)', () => {
+    // The demo sweep's GLOW spread: 15,000…125,000 kg → 0…140,000 in steps of 20,000 (7 ticks).
+    expect(niceAxis(14_824, 125_300)).toEqual({ min: 0, max: 140_000, tickAmount: 7 });
+    const a = niceAxis(0.0612, 0.0987)!;
+    const step = (a.max - a.min) / a.tickAmount;
+    expect(a.min).toBeLessThanOrEqual(0.0612);
+    expect(a.max).toBeGreaterThanOrEqual(0.0987);
+    expect(step).toBeCloseTo(0.005, 12);
+    expect(Math.abs(a.min / step - Math.round(a.min / step))).toBeLessThan(1e-9);
+  });
+
+  it('leaves an empty or zero-width extent to the chart', () => {
+    expect(niceAxis(5, 5)).toBeNull();
+    expect(niceAxis(Number.NaN, 3)).toBeNull();
   });
 });

@@ -3,6 +3,7 @@
  * the front (optionally coloured by a third quantity), and the front sorted along the x axis.
  * A case without a finite value on either axis is left out (failed cases, n/a columns).
  */
+import { nice, tickStep } from 'd3-array';
 import type { UnitSystem } from '$lib/units';
 import { metricInfo, toUnits } from './quantities';
 
@@ -70,4 +71,16 @@ export function paretoSeries(cloud: PlotCase[], front: PlotCase[], x: string, y:
     front: points(front, false).sort((a, b) => a.x - b.x),
     range
   };
+}
+
+/**
+ * Round bounds and a tick count for a numeric axis spanning lo…hi, so that its ticks fall on
+ * 1, 2 or 5 × 10^k (d3-array's nice/tickStep) instead of an even split of the raw extent
+ * (15k, 29k, 42k …). Null for an empty or zero-width extent (the chart's own scaling then).
+ */
+export function niceAxis(lo: number, hi: number, count = 8): { min: number; max: number; tickAmount: number } | null {
+  if (!Number.isFinite(lo) || !Number.isFinite(hi) || !(hi > lo)) return null;
+  const [min, max] = nice(lo, hi, count);
+  const step = tickStep(min, max, count);
+  return { min, max, tickAmount: Math.max(1, Math.round((max - min) / step)) };
 }
