@@ -5,7 +5,9 @@
  */
 import { UnrecoverableError, type Job } from 'bullmq';
 import { config } from '../../src/lib/server/config';
-import { User, Workspace } from '../../src/lib/server/db/models';
+import { Sweep, User, Workspace } from '../../src/lib/server/db/models';
+import { fmtWithUnit, metricInfo } from '../../src/lib/components/quantities';
+import type { SweepSummary } from '../../src/lib/server/sweeps/summary';
 import { sendMail } from '../../src/lib/server/mail';
 import type { JobPayloads } from '../../src/lib/server/queue';
 import { failedChunk, type ChunkResult } from '../../src/lib/server/sweeps/chunk-result';
@@ -98,6 +100,11 @@ async function notifyOwner(sweepId: number) {
   const owner = await User.findByPk(s.ownerId);
   if (!owner) return false;
   const ws = await Workspace.findByPk(s.workspaceId);
+  // The best case of each objective, in the owner's display units.
+  const summary = (await Sweep.findByPk(sweepId, { attributes: ['summary'] }))?.summary as SweepSummary | null;
+  const best = (summary?.best ?? [])
+    .filter((b) => b.caseIndex !== null && b.value !== null)
+    .map((b) => `  ${metricInfo(b.metric).label}, ${b.direction === 'min' ? 'lowest' : 'highest'}: ${fmtWithUnit(metricInfo(b.metric).kind, b.value, owner.units)} (case ${b.caseIndex})`);
   try {
     await sendMail({
       to: owner.email,
@@ -107,6 +114,8 @@ async function notifyOwner(sweepId: number) {
         '',
         `Your sweep "${s.name}" has completed: ${s.totalCases.toLocaleString('en-US')} cases, ` +
           `${s.feasibleCases.toLocaleString('en-US')} feasible, ${s.failedCases.toLocaleString('en-US')} failed.`,
+        ...(best.length ? ['', 'Best feasible case on each objective:', ...best] : []),
+        '',
         `Results: ${config.ORIGIN}/w/${ws?.slug ?? ''}/sweeps/${sweepId}`,
         '',
         'Conceptual estimates only: flight, range-safety and licensing decisions belong to qualified engineers and the applicable authorities.'

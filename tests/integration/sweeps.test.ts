@@ -10,6 +10,7 @@ import { config } from '../../src/lib/server/config';
 import { MailMessage, Sweep } from '../../src/lib/server/db/models';
 import { sequelize } from '../../src/lib/server/db/sequelize';
 import { startMailbox } from '../../src/lib/server/mailbox';
+import { fmtWithUnit } from '../../src/lib/components/quantities';
 import { closeQueues, queue } from '../../src/lib/server/queue';
 import { InputError } from '../../src/lib/server/sweeps/http';
 import { closeRawPool, withConnection } from '../../src/lib/server/sweeps/pool';
@@ -115,7 +116,7 @@ describe('one worker', () => {
     expect(Number(agg.bad)).toBe(0);
     expect(Number(agg.front)).toBeGreaterThan(0);
 
-    const summary = s.summary as { feasibleCases: number; best: { metric: string; caseIndex: number }[]; sensitivity: unknown[]; frontSize: number };
+    const summary = s.summary as { feasibleCases: number; best: { metric: string; caseIndex: number; value: number | null }[]; sensitivity: unknown[]; frontSize: number };
     expect(summary.feasibleCases).toBe(s.feasibleCases);
     expect(summary.frontSize).toBe(Number(agg.front));
     expect(summary.best.map((b) => b.metric)).toEqual(['glow', 'dryMass']);
@@ -128,6 +129,11 @@ describe('one worker', () => {
     });
     expect(mails).toHaveLength(1);
     expect(mails[0].rcptTo).toBe('engineer@tarnwick.example');
+    // It names the best case of each objective with its value in the owner's units (SI here).
+    const text = mails[0].raw ?? '';
+    expect(text).toContain('Best feasible case on each objective:');
+    for (const b of summary.best) expect(text).toContain(`${fmtWithUnit('mass', b.value, 'si')} (case ${b.caseIndex})`);
+    expect(summary.best.every((b) => b.value! > 0)).toBe(true);
   });
 
   it('gives identical results for two runs of the same spec', async () => {
