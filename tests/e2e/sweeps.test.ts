@@ -177,6 +177,18 @@ describe('sweeps in a real browser', () => {
       await waitForStatus(page, 'cancelled', 20_000);
       expect(await page.getByRole('button', { name: 'Pause' }).count()).toBe(0);
     }
+
+    // Its owner deletes it, after confirming; the study page says so and no longer lists it.
+    const id = new URL(page.url()).pathname.split('/').pop();
+    await page.getByRole('button', { name: 'Delete sweep' }).click();
+    await page.getByRole('button', { name: 'Keep it' }).click();
+    expect(await page.getByRole('button', { name: 'Delete permanently' }).count()).toBe(0);
+    await page.getByRole('button', { name: 'Delete sweep' }).click();
+    await screenshot(page, 'sweep-delete-confirm');
+    await Promise.all([page.waitForURL(/\/studies\/[0-9a-f-]{36}\?deleted=/), page.getByRole('button', { name: 'Delete permanently' }).click()]);
+    expect(await text(page, 'deleted-notice')).toBe('Deleted the sweep “Long sampled sweep” and its cases.');
+    expect(await page.locator(`a[href$="/sweeps/${id}"]`).count()).toBe(0);
+    expect((await page.request.get(`/api/sweeps/${id}`)).status()).toBe(404);
   });
 
   it('the server checks the spec with the same schema and names the field', async () => {
@@ -275,7 +287,7 @@ describe('sweeps in a real browser', () => {
     await page.goto(sweepUrl);
     expect(await page.getByTestId('sweep-title').textContent()).toBe('Structure and T/W, small grid');
     await page.getByTestId('results-table').locator('tbody tr').first().waitFor();
-    for (const name of ['Cancel sweep', 'Pause', 'Resume', 'Clone', 'Create share link']) {
+    for (const name of ['Cancel sweep', 'Pause', 'Resume', 'Clone', 'Create share link', 'Delete sweep']) {
       expect(await page.getByRole('button', { name, exact: true }).count(), name).toBe(0);
       expect(await page.getByRole('link', { name, exact: true }).count(), name).toBe(0);
     }
@@ -297,6 +309,9 @@ describe('sweeps in a real browser', () => {
       headers: { origin: BASE_URL, accept: 'text/html' }
     });
     expect(share.status()).toBe(403);
+    const del = await ctx.request.post(`${sweepUrl}?/delete`, { form: { sure: 'yes' }, headers: { origin: BASE_URL, accept: 'text/html' } });
+    expect(del.status()).toBe(403);
+    expect((await ctx.request.get(`/api/sweeps/${id}`)).status()).toBe(200);
     const create = await ctx.request.post('/api/sweeps', { data: { studyId: '00000000-0000-4000-8000-000000000000', spec: {} } });
     expect([403, 404]).toContain(create.status());
 

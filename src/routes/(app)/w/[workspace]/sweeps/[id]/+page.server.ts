@@ -1,6 +1,7 @@
-import { fail } from '@sveltejs/kit';
+import { fail, redirect } from '@sveltejs/kit';
 import { Study } from '$lib/server/db/models';
-import { sweepView } from '$lib/server/sweeps/service';
+import { deleteSweep, sweepView } from '$lib/server/sweeps/service';
+import { ConflictError } from '$lib/server/sweeps/http';
 import { createShareLink, listShareLinks, revokeShareLink, SHARE_EXPIRY_DAYS } from '$lib/server/share-links';
 import { parseShareLinkForm } from '$lib/schemas/share';
 import { UNIT_SYSTEM_LABELS, UNIT_SYSTEMS } from '$lib/units';
@@ -20,6 +21,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
     sweep: sweepView(sweep, { spec: true }),
     study: study ? { id: study.id, name: study.name } : null,
     shareLinks: links,
+    // The owner or an admin may delete it (once it is not queued or running; the server checks).
+    canDelete: role === 'admin' || (role === 'engineer' && sweep.ownerId === locals.user!.id),
     expiryChoices: SHARE_EXPIRY_DAYS,
     unitChoices: UNIT_SYSTEMS.map((value) => ({ value, label: UNIT_SYSTEM_LABELS[value] }))
   };
@@ -35,6 +38,16 @@ export const actions: Actions = {
     const { token, link } = await createShareLink(sweep.id, locals.user!.id, label || `Report of ${sweep.name}`.slice(0, 120), days, units);
     // The token is shown once: only its hash is stored.
     return { created: { ...link, url: `${url.origin}/share/${token}` } };
+  },
+  delete: async ({ locals, params }) => {
+    const { sweep, workspace } = await sweepForPage(locals, params, 'engineer');
+    try {
+      await deleteSweep(locals, sweep.id);
+    } catch (e) {
+      if (e instanceof ConflictError) return fail(409, { deleteError: e.message });
+      throw e;
+    }
+    redirect(303, `/w/${workspace.slug}/studies/${sweep.studyId}?deleted=${encodeURIComponent(sweep.name)}`);
   },
   revoke: async ({ locals, params, request }) => {
     const { sweep } = await sweepForPage(locals, params, 'engineer');
