@@ -68,6 +68,12 @@ export function fmtValue(kind: DisplayKind, si: number | null | undefined, syste
   return formatNumber(toUnits(kind, si, system), kind === 'ratio' ? { digits: 3 } : { digits });
 }
 
+/** A value with a fixed number of decimals, for columns that add up (delta-v budget terms to 1 m/s). */
+export function fmtFixed(kind: DisplayKind, si: number | null | undefined, system: UnitSystem, decimals = 0): string {
+  if (si == null || !Number.isFinite(si)) return '—';
+  return formatNumber(toUnits(kind, si, system), { decimals });
+}
+
 /** Number with its unit. */
 export function fmtWithUnit(kind: DisplayKind, si: number | null | undefined, system: UnitSystem, digits = 4): string {
   const v = fmtValue(kind, si, system, digits);
