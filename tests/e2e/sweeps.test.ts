@@ -176,6 +176,11 @@ describe('sweeps in a real browser', () => {
       await page.getByRole('button', { name: 'Cancel sweep' }).click();
       await waitForStatus(page, 'cancelled', 20_000);
       expect(await page.getByRole('button', { name: 'Pause' }).count()).toBe(0);
+      // What was evaluated before the cancel is shown: the table and the front reload once it stops.
+      const done = (await text(page, 'progress-text')).match(/^([\d,]+) of/)![1];
+      expect(Number(done.replace(/,/g, ''))).toBeGreaterThan(0);
+      await expect.poll(() => text(page, 'table-count')).toContain(`of ${done}`);
+      await expect.poll(() => text(page, 'front-info')).toMatch(/[1-9][\d,]* cases? on the front of the cases evaluated before it stopped/);
     }
 
     // Its owner deletes it, after confirming; the study page says so and no longer lists it.
