@@ -41,6 +41,20 @@ describe('NumberField', () => {
     expect(value).toBeUndefined();
   });
 
+  it('keeps the text as typed, and shows a value set from outside or a unit switch anew', async () => {
+    const { rerender } = render(NumberField, { props: { id: 'g', label: 'GLOW ceiling', kind: 'mass', system: 'si', value: 1000 } });
+    const input = screen.getByLabelText(/GLOW ceiling/) as HTMLInputElement;
+    expect(input.value).toBe('1000');
+    await fireEvent.input(input, { target: { value: '2,5' } });
+    expect(input.value).toBe('2,5');
+    // An import or a clone replaces the value: the text follows it.
+    await rerender({ value: 45_359.237 });
+    expect(input.value).toBe('45359.24');
+    // A switch to US customary shows the same mass in pounds (45,359.237 kg = 100,000 lb).
+    await rerender({ system: 'us' });
+    expect(input.value).toBe('100000');
+  });
+
   it('links its error to the input for assistive technology', () => {
     render(NumberField, { props: { id: 'a', label: 'Inclination', kind: 'angle', system: 'si', value: 200, error: 'inclination must be at most 180 deg' } } as never);
     const input = screen.getByLabelText(/Inclination/);
